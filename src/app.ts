@@ -1,0 +1,44 @@
+/**
+ * buildApp: registers plugins, then routes. Used by the server and by tests (which build the
+ * app without a port and close it after each test).
+ */
+import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
+import { CONFIG_DEFAULTS, type Config } from './config.js';
+import openapi from './plugins/openapi.js';
+import problemDetails from './plugins/problem.js';
+import { validatorCompiler } from './plugins/validation.js';
+import { OPERATIONS } from './operations/index.js';
+import { registerCheck } from './routes/v1/checks.js';
+import catalogRoutes from './routes/v1/catalog.js';
+import healthRoutes, { type ReadinessState } from './routes/health.js';
+
+export interface AppOptions {
+  config?: Partial<Config>;
+  logger?: FastifyServerOptions['logger'];
+  /** Shared with the server so that shutdown can turn readiness off. */
+  readiness?: ReadinessState;
+}
+
+export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
+  const config = { ...CONFIG_DEFAULTS, ...options.config };
+  const app = Fastify({
+    logger: options.logger ?? false,
+    bodyLimit: config.BODY_LIMIT,
+    requestIdHeader: 'x-request-id',
+    routerOptions: { maxParamLength: 200, ignoreTrailingSlash: true },
+  }).withTypeProvider<TypeBoxTypeProvider>();
+  app.setValidatorCompiler(validatorCompiler);
+  app.addHook('onSend', async (_request, reply, payload) => {
+    reply.header('x-content-type-options', 'nosniff');
+    return payload;
+  });
+
+  await app.register(problemDetails);
+  await app.register(openapi, { docs: config.DOCS });
+  await app.register(healthRoutes, { readiness: options.readiness ?? { ready: true } });
+  await app.register(catalogRoutes);
+  for (const op of OPERATIONS) registerCheck(app, op);
+  await app.ready();
+  return app;
+}

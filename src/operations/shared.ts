@@ -1,0 +1,68 @@
+/**
+ * Shared mapping between the HTTP contract and the engine: field parsing that JSON Schema
+ * cannot express (fractions, either-or fields), and the response envelope around a result.
+ */
+import type { TSchema } from 'typebox';
+import { NOTICE, STANDARD } from '../engine/notice.js';
+import type { EngineResult } from '../engine/result.js';
+import type { Method } from '../engine/provisions/resistance.js';
+import { parseFraction, unitSystem, type UnitSystemId } from '../engine/units.js';
+import { ENGINE_VERSION } from '../version.js';
+
+/** A request field that passed the schema but is still wrong (400, names the field). */
+export class RequestFieldError extends Error {
+  readonly pointer: string;
+  constructor(pointer: string, detail: string) {
+    super(detail);
+    this.name = 'RequestFieldError';
+    this.pointer = pointer;
+  }
+}
+
+/** A length given as a number, or in imperial as a fraction string. */
+export function length(value: number | string, units: UnitSystemId, pointer: string): number {
+  if (typeof value === 'number') return value;
+  if (units === 'metric') throw new RequestFieldError(pointer, 'Fraction strings are imperial only; give millimetres as a number.');
+  const n = parseFraction(value);
+  if (n === undefined || !(n > 0) || !Number.isFinite(n)) throw new RequestFieldError(pointer, `"${value}" is not a positive length such as 0.3125, "5/16" or "1-1/4".`);
+  return n;
+}
+
+export interface CommonBody {
+  id?: string;
+  method: Method;
+  units?: UnitSystemId;
+}
+
+export interface Envelope<V> extends EngineResult<V> {
+  id?: string;
+  units: { length: 'in' | 'mm'; force: 'kip' | 'kN'; stress: 'ksi' | 'MPa' };
+  basis: { standard: string; method: Method; engine: string };
+  notice: string;
+}
+
+export function envelope<V>(body: CommonBody, result: EngineResult<V>): Envelope<V> {
+  const u = unitSystem(body.units ?? 'imperial');
+  const out: Envelope<V> = {
+    ...result,
+    units: { length: u.length, force: u.force, stress: u.stress },
+    basis: { standard: STANDARD, method: body.method, engine: ENGINE_VERSION },
+    notice: NOTICE,
+  };
+  if (body.id !== undefined) out.id = body.id;
+  return out;
+}
+
+/** One calculation the service offers: its contract and how to run it. */
+export interface Operation<B extends CommonBody = CommonBody, V = unknown> {
+  /** Kind name used by batch items. */
+  readonly kind: string;
+  readonly path: string;
+  readonly summary: string;
+  readonly description: string;
+  readonly body: TSchema;
+  readonly response: TSchema;
+  /** Request examples in our invented scenario (the WS workshop). */
+  readonly examples: Record<string, { summary: string; value: B }>;
+  run(body: B): Envelope<V>;
+}

@@ -1,0 +1,42 @@
+/**
+ * The OpenAPI 3.1 document, generated from the route schemas, served as JSON and YAML, with a
+ * browsable reference page at /docs.
+ */
+import swagger from '@fastify/swagger';
+import swaggerUi from '@fastify/swagger-ui';
+import type { FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import { Problem } from '../schemas/common.js';
+import { NOTICE } from '../engine/notice.js';
+import { ENGINE_VERSION } from '../version.js';
+
+export const API_DESCRIPTION =
+  'Throatline checks welded joints of structural steel to AISC 360-22 Chapter J (§J2 welds, §J4 affected elements): ' +
+  'every answer says pass or fail, which limit state governs (a stable code), every check with its clause, the detailing limits and warnings.\n\n' +
+  `**Caution.** ${NOTICE}`;
+
+export default fp(
+  async function openapi(app: FastifyInstance, opts: { docs?: boolean }) {
+    app.addSchema(Problem);
+    await app.register(swagger, {
+      openapi: {
+        openapi: '3.1.0',
+        info: { title: 'Throatline weld design service', version: ENGINE_VERSION.replace(/^throatline /, ''), description: API_DESCRIPTION, license: { name: 'Proprietary', identifier: 'LicenseRef-Throatline' } },
+        servers: [{ url: 'http://localhost:3000', description: 'Local service with the embedded default configuration' }],
+        tags: [
+          { name: 'fillet', description: 'Fillet welds (AISC 360-22 §J2.2, §J2.4)' },
+          { name: 'base-metal', description: 'Base metal along weld lines (AISC 360-22 §J4)' },
+          { name: 'catalog', description: 'Built-in steels and electrodes' },
+          { name: 'service', description: 'Health and the contract itself' },
+        ],
+      },
+      refResolver: { buildLocalReference: (json, _baseUri, _fragment, i) => (typeof json.$id === 'string' ? json.$id : `def-${i}`) },
+    });
+    app.get('/openapi.json', { schema: { hide: true } }, async () => app.swagger());
+    app.get('/openapi.yaml', { schema: { hide: true } }, async (_req, reply) => reply.type('application/yaml; charset=utf-8').send(app.swagger({ yaml: true })));
+    if (opts.docs !== false) {
+      await app.register(swaggerUi, { routePrefix: '/docs', uiConfig: { docExpansion: 'list', deepLinking: true }, staticCSP: true });
+    }
+  },
+  { name: 'openapi' },
+);

@@ -1,0 +1,98 @@
+/**
+ * Registers a calculation as POST (JSON body) and GET (query-string form for spreadsheet cells
+ * and links), both answering JSON, CSV or one bare value. Thin: validate, run, format.
+ */
+import type { FastifyInstance, FastifyReply } from 'fastify';
+import { Type } from 'typebox';
+import { pickField, toCsv } from '../../formats.js';
+import { unflatten, coerce } from '../../query.js';
+import type { Operation } from '../../operations/shared.js';
+import { Problem, StringEnum } from '../../schemas/common.js';
+import { bodyValidator, RequestValidationError } from '../../plugins/validation.js';
+import { RequestFieldError } from '../../operations/shared.js';
+import { PROBLEM_TYPE } from '../../plugins/problem.js';
+
+export const FormatQuery = Type.Object(
+  {
+    format: Type.Optional(StringEnum(['json', 'csv', 'value'] as const, { description: 'json (default); csv: a header row and a data row; value: one bare value named by field.' })),
+    field: Type.Optional(Type.String({ maxLength: 200, description: 'With format=value: dotted path of the value, e.g. utilization, status, governing.available, checks.FILLET_WELD_METAL.ratio.' })),
+  },
+  { additionalProperties: false },
+);
+
+function problemResponses() {
+  const ref = { content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } };
+  return {
+    400: { description: 'Invalid request: the errors list points at each offending field.', ...ref },
+    422: { description: 'Well-formed, but the engineering rules cannot answer it; the code says why.', ...ref },
+  };
+}
+
+function successResponse(op: Operation) {
+  return {
+    description: 'The check, in the requested format.',
+    content: {
+      'application/json': { schema: op.response },
+      'text/csv': { schema: Type.String({ description: 'Header row of dotted field names and one data row.' }) },
+      'text/plain': { schema: Type.String({ description: 'One bare value (format=value).' }) },
+    },
+  };
+}
+
+function answer(reply: FastifyReply, result: object, format: string | undefined, field: string | undefined): FastifyReply | object {
+  if (format === 'value') {
+    if (!field) throw new RequestFieldError('/field', 'format=value needs field=, e.g. field=utilization.');
+    return reply.type('text/plain; charset=utf-8').send(pickField(result, field));
+  }
+  if (format === 'csv') return reply.type('text/csv; charset=utf-8').send(toCsv(result));
+  return result;
+}
+
+export function registerCheck(app: FastifyInstance, op: Operation): void {
+  const validate = bodyValidator(op.body);
+  const tags = [op.kind];
+  void Problem;
+
+  app.post(op.path, {
+    schema: {
+      operationId: `${camel(op.kind)}Check`,
+      tags,
+      summary: op.summary,
+      description: op.description,
+      querystring: FormatQuery,
+      body: op.body,
+      response: { 200: successResponse(op), ...problemResponses() },
+    },
+    handler: async (request, reply) => {
+      const q = request.query as { format?: string; field?: string };
+      return answer(reply, op.run(request.body as never), q.format, q.field);
+    },
+  });
+
+  app.get(op.path, {
+    schema: {
+      operationId: `${camel(op.kind)}CheckQuery`,
+      tags,
+      summary: `${op.summary} (query-string form)`,
+      description:
+        'The same calculation from query parameters, for spreadsheet cells and links: nested fields as dotted names ' +
+        '(welds.0.size=5/16&parts.0.thickness=0.5), lists with commas, fractions accepted in imperial. ' +
+        'Every field of the POST body is accepted this way.',
+      querystring: Type.Object(
+        { format: FormatQuery.properties.format, field: FormatQuery.properties.field },
+        { additionalProperties: Type.Union([Type.String(), Type.Array(Type.String())]) },
+      ),
+      response: { 200: successResponse(op), ...problemResponses() },
+    },
+    handler: async (request, reply) => {
+      const { format, field, ...rest } = request.query as Record<string, string | string[] | undefined> & { format?: string; field?: string };
+      const body = coerce(op.body as never, unflatten(rest));
+      if (!validate(body)) throw new RequestValidationError(validate.errors ?? [], 'query-form');
+      return answer(reply, op.run(body as never), format, field);
+    },
+  });
+}
+
+function camel(kind: string): string {
+  return kind.replace(/-(\w)/g, (_, c: string) => c.toUpperCase());
+}

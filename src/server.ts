@@ -1,0 +1,53 @@
+/**
+ * The only file that listens, reads the environment and picks logger options. On SIGTERM or
+ * SIGINT it turns readiness off, stops accepting connections, lets in-flight requests finish,
+ * and exits within SHUTDOWN_TIMEOUT_MS.
+ */
+import { buildApp } from './app.js';
+import { ConfigError, loadConfig } from './config.js';
+
+async function main(): Promise<void> {
+  let config;
+  try {
+    config = loadConfig(process.env);
+  } catch (err) {
+    if (err instanceof ConfigError) {
+      process.stderr.write(`${err.message}\n`);
+      process.exit(78);
+    }
+    throw err;
+  }
+  const readiness = { ready: true };
+  const app = await buildApp({
+    config,
+    readiness,
+    logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'req.headers["x-api-key"]'] },
+  });
+  let stopping = false;
+  const stop = (signal: string): void => {
+    if (stopping) return;
+    stopping = true;
+    readiness.ready = false;
+    app.log.info({ signal }, 'shutting down');
+    const timer = setTimeout(() => {
+      app.log.error('shutdown timed out; exiting');
+      process.exit(1);
+    }, config.SHUTDOWN_TIMEOUT_MS);
+    timer.unref();
+    app.close().then(
+      () => process.exit(0),
+      (err: unknown) => {
+        app.log.error({ err }, 'error while closing');
+        process.exit(1);
+      },
+    );
+  };
+  process.on('SIGTERM', () => stop('SIGTERM'));
+  process.on('SIGINT', () => stop('SIGINT'));
+  await app.listen({ host: config.HOST, port: config.PORT });
+}
+
+main().catch((err: unknown) => {
+  process.stderr.write(`Throatline failed to start: ${err instanceof Error ? err.message : String(err)}\n`);
+  process.exit(1);
+});
