@@ -65,4 +65,9 @@ export interface Operation<B extends CommonBody = CommonBody, V = unknown> {
   /** Request examples in our invented scenario (the WS workshop). */
   readonly examples: Record<string, { summary: string; value: B }>;
   run(body: B): Envelope<V>;
+  /**
+   * Extra answer formats beyond json, csv and value (for example svg for a figure), each
+   * rendered from the answer and the request that produced it.
+   */
+  readonly formats?: Readonly<Record<string, { readonly contentType: string; render(answer: Envelope<V>, body: B): string }>>;
 }

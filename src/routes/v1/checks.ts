@@ -6,19 +6,27 @@ import type { FastifyInstance, FastifyReply } from 'fastify';
 import { Type } from 'typebox';
 import { pickField, toCsv } from '../../formats.js';
 import { unflatten, coerce } from '../../query.js';
-import type { Operation } from '../../operations/shared.js';
-import { Problem, StringEnum } from '../../schemas/common.js';
+import type { CommonBody, Envelope, Operation } from '../../operations/shared.js';
+import { StringEnum } from '../../schemas/common.js';
 import { bodyValidator, RequestValidationError } from '../../plugins/validation.js';
 import { RequestFieldError } from '../../operations/shared.js';
 import { PROBLEM_TYPE } from '../../plugins/problem.js';
 
-export const FormatQuery = Type.Object(
-  {
-    format: Type.Optional(StringEnum(['json', 'csv', 'value'] as const, { description: 'json (default); csv: a header row and a data row; value: one bare value named by field.' })),
-    field: Type.Optional(Type.String({ maxLength: 200, description: 'With format=value: dotted path of the value, e.g. utilization, status, governing.available, checks.FILLET_WELD_METAL.ratio.' })),
-  },
-  { additionalProperties: false },
-);
+const BASE_FORMATS = ['json', 'csv', 'value'] as const;
+
+export function formatQuery(extra: readonly string[] = []) {
+  return Type.Object(
+    {
+      format: Type.Optional(
+        StringEnum([...BASE_FORMATS, ...extra], {
+          description: `json (default); csv: a header row and a data row; value: one bare value named by field${extra.length ? `; ${extra.join(', ')}: a rendering of the answer` : ''}.`,
+        }),
+      ),
+      field: Type.Optional(Type.String({ maxLength: 200, description: 'With format=value: dotted path of the value, e.g. utilization, status, governing.available, checks.FILLET_WELD_METAL.ratio.' })),
+    },
+    { additionalProperties: false },
+  );
+}
 
 function problemResponses() {
   const ref = { content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } };
@@ -29,17 +37,20 @@ function problemResponses() {
 }
 
 function successResponse(op: Operation) {
-  return {
-    description: 'The check, in the requested format.',
-    content: {
-      'application/json': { schema: op.response },
-      'text/csv': { schema: Type.String({ description: 'Header row of dotted field names and one data row.' }) },
-      'text/plain': { schema: Type.String({ description: 'One bare value (format=value).' }) },
-    },
+  const content: Record<string, { schema: unknown }> = {
+    'application/json': { schema: op.response },
+    'text/csv': { schema: Type.String({ description: 'Header row of dotted field names and one data row.' }) },
+    'text/plain': { schema: Type.String({ description: 'One bare value (format=value).' }) },
   };
+  for (const [name, f] of Object.entries(op.formats ?? {})) {
+    content[f.contentType.split(';')[0]!] = { schema: Type.String({ description: `format=${name}` }) };
+  }
+  return { description: 'The check, in the requested format.', content };
 }
 
-function answer(reply: FastifyReply, result: object, format: string | undefined, field: string | undefined): FastifyReply | object {
+function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined): FastifyReply | object {
+  const extra = format ? op.formats?.[format] : undefined;
+  if (extra) return reply.type(extra.contentType).send(extra.render(result, body));
   if (format === 'value') {
     if (!field) throw new RequestFieldError('/field', 'format=value needs field=, e.g. field=utilization.');
     return reply.type('text/plain; charset=utf-8').send(pickField(result, field));
@@ -51,7 +62,7 @@ function answer(reply: FastifyReply, result: object, format: string | undefined,
 export function registerCheck(app: FastifyInstance, op: Operation): void {
   const validate = bodyValidator(op.body);
   const tags = [op.kind];
-  void Problem;
+  const FormatQuery = formatQuery(Object.keys(op.formats ?? {}));
 
   app.post(op.path, {
     schema: {
@@ -65,7 +76,8 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
     },
     handler: async (request, reply) => {
       const q = request.query as { format?: string; field?: string };
-      return answer(reply, op.run(request.body as never), q.format, q.field);
+      const body = request.body as CommonBody;
+      return answer(op, reply, op.run(body as never), body, q.format, q.field);
     },
   });
 
@@ -88,7 +100,7 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
       const { format, field, ...rest } = request.query as Record<string, string | string[] | undefined> & { format?: string; field?: string };
       const body = coerce(op.body as never, unflatten(rest));
       if (!validate(body)) throw new RequestValidationError(validate.errors ?? [], 'query-form');
-      return answer(reply, op.run(body as never), format, field);
+      return answer(op, reply, op.run(body as never), body as unknown as CommonBody, format, field);
     },
   });
 }
