@@ -39,6 +39,11 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(healthRoutes, { readiness: options.readiness ?? { ready: true } });
   await app.register(catalogRoutes);
   for (const op of OPERATIONS) registerCheck(app, op);
+  // Some spreadsheet web functions probe a URL with OPTIONS, then HEAD, then GET, and give up
+  // when OPTIONS fails: answer it on every path with the methods the service uses.
+  app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>
+    reply.code(204).header('allow', 'GET, HEAD, POST, OPTIONS').send(),
+  );
   await app.ready();
   return app;
 }
