@@ -12,6 +12,7 @@ import { OPERATIONS } from './operations/index.js';
 import { registerCheck } from './routes/v1/checks.js';
 import catalogRoutes from './routes/v1/catalog.js';
 import healthRoutes, { type ReadinessState } from './routes/health.js';
+import batchRoutes from './routes/v1/batch.js';
 
 export interface AppOptions {
   config?: Partial<Config>;
@@ -39,6 +40,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(healthRoutes, { readiness: options.readiness ?? { ready: true } });
   await app.register(catalogRoutes);
   for (const op of OPERATIONS) registerCheck(app, op);
+  await app.register(batchRoutes, { config, operations: OPERATIONS });
   // Some spreadsheet web functions probe a URL with OPTIONS, then HEAD, then GET, and give up
   // when OPTIONS fails: answer it on every path with the methods the service uses.
   app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>

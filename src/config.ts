@@ -13,6 +13,9 @@ export const ConfigSchema = Type.Object({
   BODY_LIMIT: Type.Integer({ default: 1048576, minimum: 1024, maximum: 104857600, description: 'Largest request body, bytes.' }),
   SHUTDOWN_TIMEOUT_MS: Type.Integer({ default: 10000, minimum: 0, maximum: 600000, description: 'Longest wait for in-flight requests on SIGTERM before exiting.' }),
   DOCS: Type.Boolean({ default: true, description: 'Serve the reference page at /docs.' }),
+  BATCH_MAX_ITEMS: Type.Integer({ default: 100000, minimum: 1, maximum: 10000000, description: 'Most items in one batch, JSON or NDJSON.' }),
+  BATCH_BODY_LIMIT: Type.Integer({ default: 67108864, minimum: 1024, maximum: 1073741824, description: 'Largest JSON batch body, and largest NDJSON stream, bytes.' }),
+  BATCH_MAX_LINE: Type.Integer({ default: 65536, minimum: 256, maximum: 16777216, description: 'Longest NDJSON line (one item), bytes.' }),
 });
 export type Config = Static<typeof ConfigSchema>;
 
@@ -23,6 +26,9 @@ export const CONFIG_DEFAULTS: Config = {
   BODY_LIMIT: 1048576,
   SHUTDOWN_TIMEOUT_MS: 10000,
   DOCS: true,
+  BATCH_MAX_ITEMS: 100000,
+  BATCH_BODY_LIMIT: 67108864,
+  BATCH_MAX_LINE: 65536,
 };
 
 export class ConfigError extends Error {}

@@ -1,0 +1,251 @@
+/**
+ * POST /v1/batch: many calculations of any kind in one request, for BIM export pipelines.
+ *
+ * - application/json: an array of items `{ kind, id?, ...inputs }`; answers
+ *   `{ results: [...], summary }` in the same order. Each item stands alone: a bad item gets a
+ *   problem document in its slot and the others are answered.
+ * - application/x-ndjson: one item per line in, one result per line out, streamed both ways, so
+ *   the first result leaves before the last item arrives. The framework's body limit does not
+ *   cover a raw stream, so the item, line and byte limits are counted here; past a limit the
+ *   stream ends with a problem line.
+ *
+ * Items are validated with the operations' precompiled validators and answers serialized with
+ * precompiled serializers, once per kind, not through the per-request route machinery.
+ */
+import { Readable } from 'node:stream';
+import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
+import fastJson from 'fast-json-stringify';
+import { Type } from 'typebox';
+import type { Config } from '../../config.js';
+import type { Operation } from '../../operations/shared.js';
+import { RequestFieldError } from '../../operations/shared.js';
+import { bodyValidator, RequestValidationError, validatorCompiler } from '../../plugins/validation.js';
+import { problem, PROBLEM_TYPE, sendProblem, toProblem } from '../../plugins/problem.js';
+import { Problem, StringEnum } from '../../schemas/common.js';
+
+/** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
+export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
+
+type Outcome = 'pass' | 'fail' | 'error';
+
+interface Runner {
+  run(item: unknown, index: number): { json: string; outcome: Outcome };
+}
+
+export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 'ifc'): Runner {
+  const kinds = new Map(
+    operations.map((op) => [op.kind, { op, validate: bodyValidator(op.body), serialize: fastJson(op.response as object) as (x: unknown) => string }]),
+  );
+  const BatchProblem = Type.Object(
+    { ...Problem.properties, index: Type.Integer(), id: Type.Optional(Type.String()), kind: Type.Optional(Type.String()) },
+    { additionalProperties: false },
+  );
+  const serializeProblem = fastJson(BatchProblem as object) as (x: unknown) => string;
+  const kindList = [...kinds.keys()].join(', ');
+
+  return {
+    run(item, index) {
+      let id: string | undefined;
+      let kind: string | undefined;
+      try {
+        if (item === null || typeof item !== 'object' || Array.isArray(item)) throw new RequestFieldError('', 'Each item must be an object { kind, id?, ...inputs }.');
+        const { kind: k, ...body } = item as Record<string, unknown>;
+        if (typeof body.id === 'string') id = body.id;
+        if (typeof k !== 'string' || !kinds.has(k)) throw new RequestFieldError('/kind', `kind must be one of: ${kindList}.`);
+        kind = k;
+        if (idFormat === 'ifc' && (typeof body.id !== 'string' || !IFC_GLOBAL_ID.test(body.id))) {
+          throw new RequestFieldError('/id', 'id must be an IFC GlobalId: 22 characters of 0-9, A-Z, a-z, _ and $, the first 0-3.');
+        }
+        const entry = kinds.get(k)!;
+        if (!entry.validate(body)) throw new RequestValidationError(entry.validate.errors ?? [], 'body');
+        const answer = entry.op.run(body as never);
+        return { json: entry.serialize(answer), outcome: answer.status };
+      } catch (err) {
+        const p = toProblem(err);
+        const out: Record<string, unknown> = { ...p, index };
+        if (id !== undefined) out.id = id;
+        if (kind !== undefined) out.kind = kind;
+        return { json: serializeProblem(out), outcome: 'error' };
+      }
+    },
+  };
+}
+
+const BatchQuery = Type.Object(
+  {
+    ids: Type.Optional(StringEnum(['any', 'ifc'] as const, { description: 'ifc: every item id must be an IFC GlobalId (22 characters of the IFC base-64 alphabet).' })),
+    summary: Type.Optional(Type.Boolean({ description: 'NDJSON only: end the stream with one line { "summary": {...} }.' })),
+  },
+  { additionalProperties: false },
+);
+
+const Summary = Type.Object(
+  { items: Type.Integer(), pass: Type.Integer(), fail: Type.Integer(), error: Type.Integer() },
+  { additionalProperties: false },
+);
+
+export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[] }): Promise<void> {
+  const { config, operations } = opts;
+  const runners = { any: batchRunner(operations, 'any'), ifc: batchRunner(operations, 'ifc') };
+  const kinds = operations.map((o) => o.kind);
+
+  // NDJSON bodies reach the handler as the raw request stream.
+  app.addContentTypeParser('application/x-ndjson', (_request, payload, done) => done(null, payload));
+
+  app.post('/v1/batch', {
+    bodyLimit: config.BATCH_BODY_LIMIT,
+    schema: {
+      operationId: 'batch',
+      tags: ['batch'],
+      summary: 'Many checks of any kind in one request (JSON array, or NDJSON streamed both ways)',
+      description:
+        `Each item is { "kind": one of ${kinds.join(', ')}, "id"?: ..., ...the inputs of that kind's POST body }. ` +
+        'Results keep the order and id of their items; an item that fails gets a problem document (with its index) in its slot. ' +
+        `At most ${config.BATCH_MAX_ITEMS} items; NDJSON lines at most ${config.BATCH_MAX_LINE} bytes and streams at most ${config.BATCH_BODY_LIMIT} bytes.`,
+      querystring: BatchQuery,
+      body: {
+        content: {
+          'application/json': { schema: Type.Array(Type.Object({ kind: StringEnum(kinds) }, { additionalProperties: true }), { maxItems: config.BATCH_MAX_ITEMS }) },
+          'application/x-ndjson': { schema: Type.String({ description: 'One item per line.' }) },
+        },
+      },
+      response: {
+        200: {
+          description: 'Results in item order.',
+          content: {
+            'application/json': { schema: Type.Object({ results: Type.Array(Type.Object({}, { additionalProperties: true })), summary: Summary }) },
+            'application/x-ndjson': { schema: Type.String({ description: 'One result per line.' }) },
+          },
+        },
+        400: { description: 'The batch itself is malformed.', content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } },
+      },
+    },
+    // The ndjson body is a stream, not a value to validate; item validation happens per item.
+    validatorCompiler: (route) => (route.httpPart === 'body' ? (value: unknown) => ({ value }) : validatorCompiler(route)),
+    handler: async (request: FastifyRequest, reply: FastifyReply) => {
+      const q = request.query as { ids?: 'any' | 'ifc'; summary?: boolean | string };
+      const runner = runners[q.ids === 'ifc' ? 'ifc' : 'any'];
+      const body = request.body;
+      if (Array.isArray(body)) {
+        if (body.length > config.BATCH_MAX_ITEMS) {
+          return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));
+        }
+        const counts = { items: body.length, pass: 0, fail: 0, error: 0 };
+        const parts = new Array<string>(body.length);
+        for (let i = 0; i < body.length; i++) {
+          const r = runner.run(body[i], i);
+          parts[i] = r.json;
+          counts[r.outcome]++;
+        }
+        return reply.type('application/json; charset=utf-8').send(`{"results":[${parts.join(',')}],"summary":${JSON.stringify(counts)}}`);
+      }
+      if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {
+        const wantSummary = q.summary === true || q.summary === 'true';
+        const out = Readable.from(ndjsonResults(body as AsyncIterable<Buffer>, runner, config, wantSummary, request));
+        return reply.type('application/x-ndjson; charset=utf-8').send(out);
+      }
+      return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', 'A batch is a JSON array of items, or NDJSON with one item per line.', { errors: [{ pointer: '', detail: 'must be an array' }] }));
+    },
+  });
+}
+
+const NEWLINE = 0x0a;
+
+/** Reads NDJSON items from the stream and yields result lines, a chunk's worth at a time. */
+async function* ndjsonResults(
+  input: AsyncIterable<Buffer>,
+  runner: Runner,
+  config: Config,
+  wantSummary: boolean,
+  request: FastifyRequest,
+): AsyncGenerator<string> {
+  const counts = { items: 0, pass: 0, fail: 0, error: 0 };
+  let pending: Buffer[] = [];
+  let pendingBytes = 0;
+  let overlong = false;
+  let totalBytes = 0;
+  let index = 0;
+  let stopped: string | null = null;
+
+  const handleLine = (line: string, out: string[]): void => {
+    if (line.trim() === '') return;
+    if (index >= config.BATCH_MAX_ITEMS) {
+      stopped = stopLine(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; the stream was cut after item ${index - 1}.`);
+      return;
+    }
+    let item: unknown;
+    let result: { json: string; outcome: Outcome };
+    try {
+      item = JSON.parse(line);
+      result = runner.run(item, index);
+    } catch {
+      result = { json: JSON.stringify({ ...problem(400, 'malformed-body', 'Malformed item', `Line of item ${index} is not valid JSON.`), index }), outcome: 'error' };
+    }
+    out.push(result.json);
+    counts.items++;
+    counts[result.outcome]++;
+    index++;
+  };
+
+  for await (const chunk of input) {
+    totalBytes += chunk.length;
+    if (totalBytes > config.BATCH_BODY_LIMIT) {
+      stopped = stopLine(413, 'body-too-large', 'Stream too large', `At most ${config.BATCH_BODY_LIMIT} bytes per stream; the stream was cut after item ${index - 1}.`);
+      break;
+    }
+    const out: string[] = [];
+    let start = 0;
+    for (;;) {
+      const nl = chunk.indexOf(NEWLINE, start);
+      const end = nl === -1 ? chunk.length : nl;
+      const piece = chunk.subarray(start, end);
+      if (!overlong) {
+        if (pendingBytes + piece.length > config.BATCH_MAX_LINE) {
+          overlong = true;
+          pending = [];
+          pendingBytes = 0;
+        } else if (piece.length > 0) {
+          pending.push(piece);
+          pendingBytes += piece.length;
+        }
+      }
+      if (nl === -1) break;
+      if (overlong) {
+        out.push(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }));
+        counts.items++;
+        counts.error++;
+        index++;
+        overlong = false;
+      } else {
+        handleLine(Buffer.concat(pending, pendingBytes).toString('utf8'), out);
+        pending = [];
+        pendingBytes = 0;
+      }
+      if (stopped) break;
+      start = nl + 1;
+    }
+    if (out.length > 0) yield out.join('\n') + '\n';
+    if (stopped) break;
+  }
+  if (!stopped && (pendingBytes > 0 || overlong)) {
+    const out: string[] = [];
+    if (overlong) {
+      out.push(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }));
+      counts.items++;
+      counts.error++;
+    } else {
+      handleLine(Buffer.concat(pending, pendingBytes).toString('utf8'), out);
+    }
+    if (out.length > 0) yield out.join('\n') + '\n';
+  }
+  if (stopped) {
+    yield stopped;
+    // Discard the rest of the upload so the connection ends cleanly rather than by a reset.
+    request.raw.resume();
+  }
+  if (wantSummary) yield JSON.stringify({ summary: counts }) + '\n';
+}
+
+function stopLine(status: number, slug: string, title: string, detail: string): string {
+  return JSON.stringify({ problem: problem(status, slug, title, detail) }) + '\n';
+}
