@@ -2,7 +2,8 @@
  * buildApp: registers plugins, then routes. Used by the server and by tests (which build the
  * app without a port and close it after each test).
  */
-import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import { OneLineLog } from './plugins/request-log.js';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import { CONFIG_DEFAULTS, type Config } from './config.js';
 import openapi from './plugins/openapi.js';
@@ -17,6 +18,8 @@ import batchRoutes from './routes/v1/batch.js';
 export interface AppOptions {
   config?: Partial<Config>;
   logger?: FastifyServerOptions['logger'];
+  /** A ready-made pino logger (the server passes one with an asynchronous destination). */
+  loggerInstance?: FastifyBaseLogger;
   /** Shared with the server so that shutdown can turn readiness off. */
   readiness?: ReadinessState;
 }
@@ -24,7 +27,8 @@ export interface AppOptions {
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
   const config = { ...CONFIG_DEFAULTS, ...options.config };
   const app = Fastify({
-    logger: options.logger ?? false,
+    ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: options.logger ?? false }),
+    logController: new OneLineLog(),
     bodyLimit: config.BODY_LIMIT,
     requestIdHeader: 'x-request-id',
     routerOptions: { maxParamLength: 200, ignoreTrailingSlash: true },

@@ -3,6 +3,7 @@
  * SIGINT it turns readiness off, stops accepting connections, lets in-flight requests finish,
  * and exits within SHUTDOWN_TIMEOUT_MS.
  */
+import pino from 'pino';
 import { buildApp } from './app.js';
 import { ConfigError, loadConfig } from './config.js';
 
@@ -18,11 +19,18 @@ async function main(): Promise<void> {
     throw err;
   }
   const readiness = { ready: true };
-  const app = await buildApp({
-    config,
-    readiness,
-    logger: { level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'req.headers["x-api-key"]'] },
-  });
+  // Asynchronous, buffered log destination: request logging must not block the event loop.
+  const destination = pino.destination({ sync: false, minLength: 4096 });
+  const logger = pino({ level: config.LOG_LEVEL, redact: ['req.headers.authorization', 'req.headers["x-api-key"]'] }, destination);
+  const flushAndExit = (code: number): never => {
+    try {
+      destination.flushSync();
+    } catch {
+      // nothing more can be done about a log that cannot be written
+    }
+    process.exit(code);
+  };
+  const app = await buildApp({ config, readiness, loggerInstance: logger });
   let stopping = false;
   const stop = (signal: string): void => {
     if (stopping) return;
@@ -31,14 +39,14 @@ async function main(): Promise<void> {
     app.log.info({ signal }, 'shutting down');
     const timer = setTimeout(() => {
       app.log.error('shutdown timed out; exiting');
-      process.exit(1);
+      flushAndExit(1);
     }, config.SHUTDOWN_TIMEOUT_MS);
     timer.unref();
     app.close().then(
-      () => process.exit(0),
+      () => flushAndExit(0),
       (err: unknown) => {
         app.log.error({ err }, 'error while closing');
-        process.exit(1);
+        flushAndExit(1);
       },
     );
   };
