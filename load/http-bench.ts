@@ -1,0 +1,290 @@
+/**
+ * HTTP benchmark: the service as shipped (dist/server.js with its own logging) against a bare
+ * Fastify baseline (load/baseline-server.mjs), in interleaved rounds on this machine. The
+ * servers are pinned to core 0 and this load generator to core 1 (taskset). Prints, per
+ * scenario, requests/s, server CPU µs per request, p50/p99 latency, errors, and the ratio to the
+ * baseline given the same payload (median of the rounds); then PASS/FAIL per target.
+ *
+ *   npm run bench                 full run (3 rounds of 5 s per scenario)
+ *   npm run bench -- --short      one short round: checks the suite runs (CI), no verdicts
+ *   npm run bench -- --rounds 5 --duration 10
+ */
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync, openSync } from 'node:fs';
+import http from 'node:http';
+import autocannon from 'autocannon';
+import { cpuMicros, fmt, median, rssMiB, table } from './lib.js';
+
+const args = process.argv.slice(2);
+const short = args.includes('--short');
+const argNum = (name: string, dflt: number): number => {
+  const i = args.indexOf(name);
+  return i >= 0 ? Number(args[i + 1]) : dflt;
+};
+const ROUNDS = short ? 1 : argNum('--rounds', 3);
+const DURATION = short ? 1 : argNum('--duration', 5);
+const CONNECTIONS = argNum('--connections', 32);
+const NDJSON_LINES = short ? 5_000 : 100_000;
+const BATCH_ITEMS = 1_000;
+const hasTaskset = spawnSync('taskset', ['-V']).status === 0;
+
+// Pin this load generator to core 1 by re-running it under taskset.
+if (hasTaskset && process.env.BENCH_PINNED !== '1') {
+  const r = spawnSync('taskset', ['-c', '1', process.execPath, ...process.execArgv, process.argv[1]!, ...args], { stdio: 'inherit', env: { ...process.env, BENCH_PINNED: '1' } });
+  process.exit(r.status ?? 1);
+}
+
+interface Server {
+  name: string;
+  proc: ChildProcess;
+  port: number;
+  startupMs: number;
+}
+
+async function waitReady(port: number, path: string, timeoutMs = 15_000): Promise<void> {
+  const deadline = Date.now() + timeoutMs;
+  for (;;) {
+    const ok = await new Promise<boolean>((resolve) => {
+      const req = http.get({ host: '127.0.0.1', port, path }, (res) => {
+        res.resume();
+        resolve(res.statusCode === 200);
+      });
+      req.on('error', () => resolve(false));
+    });
+    if (ok) return;
+    if (Date.now() > deadline) throw new Error(`server on ${port} not ready`);
+    await new Promise((r) => setTimeout(r, 5));
+  }
+}
+
+async function start(name: string, script: string, port: number, readyPath: string, env: Record<string, string> = {}): Promise<Server> {
+  const cmd = hasTaskset ? 'taskset' : process.execPath;
+  const argv = hasTaskset ? ['-c', '0', process.execPath, script] : [script];
+  const out = openSync('/dev/null', 'w');
+  const t0 = performance.now();
+  const proc = spawn(cmd, argv, { env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ...env }, stdio: ['ignore', out, 'inherit'] });
+  await waitReady(port, readyPath);
+  return { name, proc, port, startupMs: performance.now() - t0 };
+}
+
+interface Scenario {
+  name: string;
+  method: 'GET' | 'POST';
+  path: string;
+  contentType?: string;
+  body?: string;
+  /** Items per request, for items/s. */
+  items: number;
+}
+
+const fillet = {
+  method: 'LRFD', units: 'imperial', electrode: 'E70',
+  welds: [{ size: '5/16', length: 10, angle: 0, count: 2 }],
+  load: { force: 120 },
+  parts: [{ thickness: 0.5, steel: 'A572-50', faces: 2 }, { thickness: 0.75, steel: 'A992' }],
+};
+const pjp = {
+  method: 'LRFD', units: 'imperial', electrode: 'E70',
+  groove: { type: 'bevel-45', depth: 0.5, process: 'SMAW', position: 'vertical', sides: 1 },
+  length: 12, load: { case: 'tension-normal', force: 40 },
+  parts: [{ thickness: 0.75, steel: 'A992' }, { thickness: 1.0, steel: 'A572-50' }],
+};
+const eccentric = {
+  method: 'LRFD', units: 'imperial', electrode: 'E70', size: '1/4',
+  segments: [{ from: [0, 0], to: [4, 0] }, { from: [0, 0], to: [0, 10] }, { from: [0, 10], to: [4, 10] }],
+  load: { fx: 0, fy: -30, at: [10, 5] },
+};
+
+async function routeExists(port: number, path: string, body: object): Promise<boolean> {
+  const res = await fetch(`http://127.0.0.1:${port}${path}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+  await res.arrayBuffer();
+  return res.status === 200;
+}
+
+function batchBody(kinds: Array<[string, object]>, n: number): string {
+  const items = [];
+  for (let i = 0; i < n; i++) {
+    const [kind, body] = kinds[i % kinds.length]!;
+    items.push({ kind, id: `WS-${i}`, ...body });
+  }
+  return JSON.stringify(items);
+}
+
+interface Run {
+  rps: number;
+  itemsPerSec: number;
+  cpuPerReq: number;
+  p50: number;
+  p99: number;
+  errors: number;
+}
+
+async function cannon(server: Server, s: Scenario): Promise<Run> {
+  const cpu0 = cpuMicros(server.proc.pid!);
+  const r = await autocannon({
+    url: `http://127.0.0.1:${server.port}${s.path}`,
+    method: s.method,
+    headers: s.contentType ? { 'content-type': s.contentType } : {},
+    body: s.body,
+    connections: s.items > 1 ? 4 : CONNECTIONS,
+    duration: DURATION,
+  });
+  const cpu1 = cpuMicros(server.proc.pid!);
+  const total = r.requests.total || 1;
+  return {
+    rps: r.requests.average,
+    itemsPerSec: r.requests.average * s.items,
+    cpuPerReq: (cpu1 - cpu0) / total,
+    p50: r.latency.p50,
+    p99: r.latency.p99,
+    errors: r.errors + r.timeouts + r.non2xx,
+  };
+}
+
+/** Streams NDJSON_LINES fillet items to the server and reads the results as they come. */
+async function ndjson(server: Server, path: string): Promise<Run & { peakRssGrowth: number }> {
+  const line = JSON.stringify({ kind: 'fillet', ...fillet }) + '\n';
+  const chunkLines = 500;
+  const chunk = Buffer.from(line.repeat(chunkLines));
+  const rss0 = rssMiB(server.proc.pid!);
+  let peak = rss0;
+  const sampler = setInterval(() => {
+    peak = Math.max(peak, rssMiB(server.proc.pid!));
+  }, 20);
+  const cpu0 = cpuMicros(server.proc.pid!);
+  const t0 = performance.now();
+  let firstByteMs = Number.NaN;
+  let lines = 0;
+  let status = 0;
+  await new Promise<void>((resolve, reject) => {
+    const req = http.request({ host: '127.0.0.1', port: server.port, path, method: 'POST', headers: { 'content-type': 'application/x-ndjson' } }, (res) => {
+      status = res.statusCode ?? 0;
+      res.on('data', (b: Buffer) => {
+        if (Number.isNaN(firstByteMs)) firstByteMs = performance.now() - t0;
+        for (let i = b.indexOf(10); i !== -1; i = b.indexOf(10, i + 1)) lines++;
+      });
+      res.on('end', resolve);
+      res.on('error', reject);
+    });
+    req.on('error', reject);
+    let sent = 0;
+    const pump = (): void => {
+      while (sent < NDJSON_LINES) {
+        sent += chunkLines;
+        if (!req.write(chunk)) {
+          req.once('drain', pump);
+          return;
+        }
+      }
+      req.end();
+    };
+    pump();
+  });
+  const secs = (performance.now() - t0) / 1000;
+  clearInterval(sampler);
+  const cpu1 = cpuMicros(server.proc.pid!);
+  return {
+    rps: 1 / secs,
+    itemsPerSec: NDJSON_LINES / secs,
+    cpuPerReq: cpu1 - cpu0,
+    p50: firstByteMs,
+    p99: secs * 1000,
+    errors: status === 200 && (server.name === 'baseline' || lines >= NDJSON_LINES) ? 0 : 1,
+    peakRssGrowth: peak - rss0,
+  };
+}
+
+async function main(): Promise<void> {
+  if (!existsSync('dist/server.js') || !short) {
+    const b = spawnSync('npm', ['run', '-s', 'build'], { stdio: 'inherit' });
+    if (b.status !== 0) throw new Error('build failed');
+  }
+  const baseline = await start('baseline', 'load/baseline-server.mjs', 3901, '/bench');
+  const service = await start('service', 'dist/server.js', 3902, '/readyz', { LOG_LEVEL: 'info' });
+  const startupMs = service.startupMs;
+
+  const filletQuery =
+    '/v1/fillet/check?method=LRFD&electrode=E70&welds.0.size=5/16&welds.0.length=10&welds.0.count=2&load.force=120' +
+    '&parts.0.thickness=1/2&parts.0.steel=A572-50&parts.0.faces=2&parts.1.thickness=3/4&parts.1.steel=A992&format=value&field=utilization';
+  const mixKinds: Array<[string, object]> = [['fillet', fillet]];
+  const scenarios: Array<Scenario & { target?: string }> = [
+    { name: 'fillet check', method: 'POST', path: '/v1/fillet/check', contentType: 'application/json', body: JSON.stringify(fillet), items: 1 },
+    { name: 'GET value form', method: 'GET', path: filletQuery, items: 1 },
+  ];
+  if (await routeExists(service.port, '/v1/groove/pjp/check', pjp)) {
+    scenarios.push({ name: 'PJP check', method: 'POST', path: '/v1/groove/pjp/check', contentType: 'application/json', body: JSON.stringify(pjp), items: 1 });
+    mixKinds.push(['groove-pjp', pjp]);
+  }
+  if (await routeExists(service.port, '/v1/weld-group/eccentric', eccentric)) {
+    scenarios.push({ name: 'eccentric group (3 segments)', method: 'POST', path: '/v1/weld-group/eccentric', contentType: 'application/json', body: JSON.stringify(eccentric), items: 1 });
+  }
+  const filletBatch = batchBody([['fillet', fillet]], BATCH_ITEMS);
+  scenarios.push({ name: `JSON batch ${BATCH_ITEMS} fillet`, method: 'POST', path: '/v1/batch', contentType: 'application/json', body: filletBatch, items: BATCH_ITEMS });
+  if (mixKinds.length > 1) {
+    scenarios.push({ name: `JSON batch ${BATCH_ITEMS} mixed`, method: 'POST', path: '/v1/batch', contentType: 'application/json', body: batchBody(mixKinds, BATCH_ITEMS), items: BATCH_ITEMS });
+  }
+
+  const results = new Map<string, { base: Run[]; svc: Run[] }>();
+  const rssByRound: number[] = [];
+  let ndjsonRuns: Array<Run & { peakRssGrowth: number }> = [];
+  for (let round = 1; round <= ROUNDS; round++) {
+    for (const s of scenarios) {
+      const entry = results.get(s.name) ?? { base: [], svc: [] };
+      const baseScenario = { ...s, path: s.method === 'GET' ? '/bench' : '/bench' };
+      entry.base.push(await cannon(baseline, baseScenario));
+      entry.svc.push(await cannon(service, s));
+      results.set(s.name, entry);
+    }
+    ndjsonRuns.push(await ndjson(service, '/v1/batch'));
+    rssByRound.push(rssMiB(service.proc.pid!));
+    process.stderr.write(`round ${round}/${ROUNDS} done\n`);
+  }
+
+  const rows = [['scenario', 'svc req/s', 'base req/s', 'ratio', 'svc µs CPU/req', 'base µs CPU/req', 'CPU ratio', 'p50 ms', 'p99 ms', 'errors', 'items/s']];
+  const verdicts: Array<[string, boolean, string]> = [];
+  for (const [name, { base, svc }] of results) {
+    const ratio = median(svc.map((r, i) => r.rps / base[i]!.rps));
+    const cpuRatio = median(svc.map((r, i) => r.cpuPerReq / base[i]!.cpuPerReq));
+    rows.push([
+      name, fmt(median(svc.map((r) => r.rps))), fmt(median(base.map((r) => r.rps))), fmt(ratio),
+      fmt(median(svc.map((r) => r.cpuPerReq))), fmt(median(base.map((r) => r.cpuPerReq))), fmt(cpuRatio),
+      fmt(median(svc.map((r) => r.p50))), fmt(median(svc.map((r) => r.p99))), String(svc.reduce((a, r) => a + r.errors, 0)),
+      fmt(median(svc.map((r) => r.itemsPerSec))),
+    ]);
+    if (name === 'fillet check') {
+      verdicts.push(['fillet route throughput >= 0.85 × baseline', ratio >= 0.85, fmt(ratio)]);
+      verdicts.push(['fillet route CPU/request <= 1.25 × baseline', cpuRatio <= 1.25, fmt(cpuRatio)]);
+    }
+    if (name.startsWith('eccentric')) verdicts.push(['eccentric route throughput >= 0.7 × baseline', ratio >= 0.7, fmt(ratio)]);
+    if (name === `JSON batch ${BATCH_ITEMS} fillet`) {
+      const ips = median(svc.map((r) => r.itemsPerSec));
+      verdicts.push(['JSON batch >= 400,000 fillet items/s', ips >= 400_000, fmt(ips)]);
+    }
+  }
+  const ndLines = median(ndjsonRuns.map((r) => r.itemsPerSec));
+  rows.push([`NDJSON ${NDJSON_LINES} lines`, '-', '-', '-', fmt(median(ndjsonRuns.map((r) => r.cpuPerReq / NDJSON_LINES))) + '/line', '-', '-',
+    `${fmt(median(ndjsonRuns.map((r) => r.p50)))} (first)`, `${fmt(median(ndjsonRuns.map((r) => r.p99)))} (all)`, String(ndjsonRuns.reduce((a, r) => a + r.errors, 0)), fmt(ndLines)]);
+  const growth = Math.max(...ndjsonRuns.map((r) => r.peakRssGrowth));
+  verdicts.push(['NDJSON >= 300,000 lines/s', ndLines >= 300_000, fmt(ndLines)]);
+  verdicts.push(['NDJSON memory flat (peak RSS growth < 64 MiB)', growth < 64, `${fmt(growth)} MiB`]);
+  verdicts.push(['start-up to ready < 1 s', startupMs < 1000, `${fmt(startupMs)} ms`]);
+  const rssEnd = rssByRound[rssByRound.length - 1]!;
+  verdicts.push(['resident memory < 150 MB after the run', rssEnd < 150, `${fmt(rssEnd)} MiB`]);
+  if (rssByRound.length >= 3) {
+    const g = rssByRound[2]! / rssByRound[1]! - 1;
+    verdicts.push(['no RSS growth between rounds 2 and 3 (< 5 %)', g < 0.05, `${fmt(g * 100)} %`]);
+  }
+
+  console.log(`\nThroatline HTTP benchmark: ${ROUNDS} round(s) × ${DURATION} s per scenario, ${CONNECTIONS} connections, ` +
+    `${hasTaskset ? 'server on core 0, load on core 1' : 'no taskset: cores not pinned'}; medians over rounds; ratios against the bare Fastify baseline given the same payload.\n`);
+  console.log(table(rows));
+  console.log('');
+  for (const [what, ok, figure] of verdicts) console.log(`${short ? 'INFO' : ok ? 'PASS' : 'FAIL'}  ${what}: ${figure}`);
+
+  for (const s of [baseline, service]) s.proc.kill('SIGTERM');
+}
+
+main().catch((err: unknown) => {
+  console.error(err);
+  process.exit(1);
+});
