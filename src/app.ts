@@ -6,6 +6,7 @@ import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServ
 import { OneLineLog } from './plugins/request-log.js';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import { CONFIG_DEFAULTS, type Config } from './config.js';
+import caching from './plugins/caching.js';
 import openapi from './plugins/openapi.js';
 import problemDetails from './plugins/problem.js';
 import { validatorCompiler } from './plugins/validation.js';
@@ -40,6 +41,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   });
 
   await app.register(problemDetails);
+  await app.register(caching);
   await app.register(openapi, { docs: config.DOCS });
   await app.register(healthRoutes, { readiness: options.readiness ?? { ready: true } });
   await app.register(catalogRoutes);
