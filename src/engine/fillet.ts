@@ -106,7 +106,8 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
     const throat = te(a, b);
     const effectiveSize = shortWeldEffectiveSize(size, w.length);
     const effectiveThroat = throat * (effectiveSize / size);
-    const reduced = w.endLoaded ? endLoadedLength(w.length, size) : { effective: w.length, beta: 1 };
+    // The length reduction of §J2.2b is for longitudinal welds at the end of an axially loaded member.
+    const reduced = w.endLoaded && same(w.angle, 0) ? endLoadedLength(w.length, size) : { effective: w.length, beta: 1 };
     const segments = w.intermittent ? w.intermittent.segments : 1;
     const effectiveLength = reduced.effective * segments * w.count;
     const grossLength = w.length * segments * w.count;
@@ -123,11 +124,11 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
   let weldNominal: number;
   let equation: string;
   if (!req.directionalIncrease || (oneAngle && same(angles[0]!, 0))) {
-    groupRule = oneAngle ? 'linear' : 'no-increase';
+    // Longitudinal lines gain nothing from the increase; with the increase switched off no rule uses it.
+    groupRule = req.directionalIncrease ? 'linear' : 'no-increase';
     lineKds = lines.map(() => 1);
     weldNominal = lines.reduce((s, l) => s + RnWeld(Fnw(FEXX), l.area, units), 0);
     equation = 'Eq. J2-4';
-    if (!oneAngle && !req.directionalIncrease) groupRule = 'no-increase';
   } else if (oneAngle && uniformSize) {
     groupRule = 'linear';
     lineKds = lines.map((l) => kds(l.input.angle));
@@ -180,6 +181,9 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
     if (short) warnings.push(warn('FILLET_SHORT_EFFECTIVE_SIZE', `welds[${l.index}] is ${w.length} long, less than 4 × ${l.size}; its effective size is taken as ${l.effectiveSize}.`));
     if (w.intermittent) limits.push(limit('FILLET_INTERMITTENT_SEGMENT', 'min', lMinIntermittent(l.size, sys), w.length, { weld: l.index }));
     if (req.flatBarWidth !== null && same(w.angle, 0)) limits.push(limit('FILLET_FLAT_BAR_WELD_LENGTH', 'min', req.flatBarWidth, w.length, { weld: l.index }));
+    if (w.endLoaded && !same(w.angle, 0)) {
+      warnings.push(warn('END_LOADED_NOT_LONGITUDINAL', `welds[${l.index}] is marked end-loaded but loaded at ${w.angle} degrees; the length reduction applies to longitudinal welds only and was not applied.`));
+    }
     if (w.endLoaded && l.beta < 1) {
       warnings.push(warn('END_LOADED_LENGTH_REDUCED', `welds[${l.index}]: l/w = ${(w.length / l.size).toFixed(1)} > 100, so the effective length is ${(l.beta * w.length).toPrecision(4)} (beta = ${l.beta.toFixed(3)}).`));
     }
