@@ -7,6 +7,7 @@
  *   npm run bench:engine -- --short quick run (CI): checks it runs
  */
 import { checkFillet, type FilletRequest } from '../src/engine/fillet.js';
+import { benches as extraBenches } from './engine-bench-extra.js';
 import { fmt, median, table } from './lib.js';
 
 const short = process.argv.includes('--short');
@@ -61,7 +62,7 @@ const benches: Bench[] = [
 ];
 
 // Families that land later register their own benchmarks here.
-for (const extra of await import('./engine-bench-extra.js').then((m) => m.benches as Bench[]).catch(() => [] as Bench[])) benches.push(extra);
+benches.push(...extraBenches);
 
 const samples = new Map<string, number[]>();
 for (let r = 0; r < ROUNDS; r++) {

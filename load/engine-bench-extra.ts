@@ -1,0 +1,2 @@
+/** Engine micro-benchmarks of the weld families beyond fillets (filled in as each family lands). */
+export const benches: Array<{ name: string; fn: () => unknown; targetNs?: number }> = [];
