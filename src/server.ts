@@ -31,6 +31,8 @@ async function main(): Promise<void> {
     process.exit(code);
   };
   const app = await buildApp({ config, readiness, loggerInstance: logger });
+  // Buffered lines reach the log at least once a second, so a quiet service's log is not empty.
+  setInterval(() => destination.flush(), 1000).unref();
   let stopping = false;
   const stop = (signal: string): void => {
     if (stopping) return;

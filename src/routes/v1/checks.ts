@@ -38,7 +38,7 @@ function problemResponses() {
 
 function successResponse(op: Operation) {
   const content: Record<string, { schema: unknown }> = {
-    'application/json': { schema: op.response },
+    'application/json': { schema: Type.Ref((op.response as { $id: string }).$id) },
     'text/csv': { schema: Type.String({ description: 'Header row of dotted field names and one data row.' }) },
     'text/plain': { schema: Type.String({ description: 'One bare value (format=value).' }) },
   };
@@ -60,20 +60,23 @@ function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, b
 }
 
 export function registerCheck(app: FastifyInstance, op: Operation): void {
+  // The answer's schema is a shared component: one copy in the contract for both forms.
+  app.addSchema(op.response);
   const validate = bodyValidator(op.body);
-  const tags = [op.kind];
   const FormatQuery = formatQuery(Object.keys(op.formats ?? {}));
 
   app.post(op.path, {
     schema: {
       operationId: `${camel(op.kind)}Check`,
-      tags,
+      tags: [op.kind],
       summary: op.summary,
       description: op.description,
       querystring: FormatQuery,
       body: op.body,
       response: { 200: successResponse(op), ...problemResponses() },
     },
+    // The operation's named examples become the request body's examples in the contract.
+    config: { swaggerTransform: ({ schema, url }) => ({ schema: { ...schema, body: { ...(schema.body as object), 'x-examples': op.examples } }, url }) },
     handler: async (request, reply) => {
       const q = request.query as { format?: string; field?: string };
       const body = request.body as CommonBody;
@@ -84,7 +87,7 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
   app.get(op.path, {
     schema: {
       operationId: `${camel(op.kind)}CheckQuery`,
-      tags,
+      tags: [op.kind],
       summary: `${op.summary} (query-string form)`,
       description:
         'The same calculation from query parameters, for spreadsheet cells and links: nested fields as dotted names ' +

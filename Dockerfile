@@ -1,0 +1,38 @@
+# Throatline container image.
+#
+#   docker build -t throatline .
+#   docker run --rm -p 3000:3000 --read-only throatline
+#
+# Three stages on the same base: production dependencies, the TypeScript build, and the
+# runtime image that holds only package.json, the production node_modules and dist/. The
+# service writes nothing to disk, so it runs on a read-only root filesystem as the unprivileged
+# user `node`.
+
+# ---- production dependencies only
+FROM node:24-slim AS deps
+WORKDIR /app
+COPY package.json package-lock.json ./
+RUN npm ci --omit=dev --no-audit --no-fund && npm cache clean --force
+
+# ---- build: all dependencies, compile src/ to dist/
+FROM node:24-slim AS build
+WORKDIR /app
+COPY package.json package-lock.json ./
+RUN npm ci --no-audit --no-fund
+COPY tsconfig.json tsconfig.build.json ./
+COPY src ./src
+RUN npm run build
+
+# ---- runtime
+FROM node:24-slim AS runtime
+ENV HOST=0.0.0.0 PORT=3000 NODE_ENV=production
+WORKDIR /app
+COPY package.json ./
+COPY --from=deps /app/node_modules ./node_modules
+COPY --from=build /app/dist ./dist
+USER node
+EXPOSE 3000
+# No curl in the slim image: node itself asks /healthz.
+HEALTHCHECK --interval=30s --timeout=5s --start-period=10s --retries=3 \
+  CMD ["node", "-e", "fetch('http://127.0.0.1:' + (process.env.PORT || 3000) + '/healthz').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))"]
+CMD ["node", "dist/server.js"]
