@@ -8,7 +8,7 @@ import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import { CONFIG_DEFAULTS, type Config } from './config.js';
 import caching from './plugins/caching.js';
 import openapi from './plugins/openapi.js';
-import problemDetails from './plugins/problem.js';
+import problemDetails, { frameworkErrors } from './plugins/problem.js';
 import { validatorCompiler } from './plugins/validation.js';
 import { OPERATIONS } from './operations/index.js';
 import { registerCheck } from './routes/v1/checks.js';
@@ -33,8 +33,13 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     bodyLimit: config.BODY_LIMIT,
     requestIdHeader: 'x-request-id',
     routerOptions: { maxParamLength: 200, ignoreTrailingSlash: true },
+    frameworkErrors,
   }).withTypeProvider<TypeBoxTypeProvider>();
   app.setValidatorCompiler(validatorCompiler);
+  // Only JSON (and NDJSON on the batch route) is accepted: a text body is a 415, not a parse attempt.
+  app.removeContentTypeParser('text/plain');
+  // Shared schemas go on the root before any plugin compiles a route against them.
+  for (const op of OPERATIONS) app.addSchema(op.response);
   app.addHook('onSend', async (_request, reply, payload) => {
     reply.header('x-content-type-options', 'nosniff');
     return payload;

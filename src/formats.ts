@@ -1,7 +1,8 @@
 /**
  * Spreadsheet output formats: one bare value (format=value&field=...) and a two-row CSV
  * (format=csv). Both are views of the JSON answer; numbers print in JavaScript's shortest
- * round-trip form with a "." decimal point, so they parse back to the same numbers.
+ * round-trip form with a "." decimal point, so they parse back to the same numbers; text that a
+ * spreadsheet would take for a formula is neutralised (see scalar).
  */
 import { RequestFieldError } from './operations/shared.js';
 
@@ -19,8 +20,16 @@ export function flatten(value: Json, prefix = '', out: Array<[string, string]> =
   return out;
 }
 
+/**
+ * Text that a spreadsheet would read as a formula (=, +, -, @, tab, CR first) gets a leading
+ * apostrophe, so an echoed id can never run as a formula in the cell it lands in. Numbers
+ * and booleans print as they are.
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
 function scalar(v: null | boolean | number | string): string {
   if (v === null) return '';
+  if (typeof v === 'string') return FORMULA_START.test(v) ? `'${v}` : v;
   return String(v);
 }
 

@@ -6,40 +6,52 @@
  */
 import { RequestFieldError } from './operations/shared.js';
 
-const SEGMENT = /^[A-Za-z][A-Za-z0-9_-]{0,63}$|^\d{1,4}$/;
+const NAME = /^[A-Za-z][A-Za-z0-9_-]{0,63}$/;
+const INDEX = /^\d+$/;
 const FORBIDDEN = new Set(['__proto__', 'constructor', 'prototype']);
 const MAX_INDEX = 999;
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
+
+const own = (o: object, k: string | number): boolean => Object.prototype.hasOwnProperty.call(o, k);
+const escapePointer = (segment: string): string => segment.replace(/~/g, '~0').replace(/\//g, '~1');
 
 /** Builds the nested request object from flat query entries. Throws RequestFieldError on bad names. */
 export function unflatten(query: Record<string, string | string[] | undefined>): Record<string, Json> {
   const root: Record<string, Json> = {};
   for (const [key, raw] of Object.entries(query)) {
     if (raw === undefined) continue;
-    const value: Json = Array.isArray(raw) ? (raw.length === 1 ? raw[0]! : raw) : raw;
     const parts = key.split('.');
-    const pointer = '/' + parts.join('/');
+    const pointer = '/' + parts.map(escapePointer).join('/');
     for (const p of parts) {
-      if (!SEGMENT.test(p) || FORBIDDEN.has(p)) throw new RequestFieldError(pointer, `"${key}" is not a field name (dotted names and array indexes only).`);
+      if (FORBIDDEN.has(p) || !(NAME.test(p) || INDEX.test(p))) throw new RequestFieldError(pointer, `"${key}" is not a field name (dotted names and array indexes only).`);
     }
+    if (Array.isArray(raw) && raw.length !== 1) {
+      throw new RequestFieldError(pointer, `"${key}" is given more than once; give it once (a list as one comma-separated value).`);
+    }
+    const value: Json = Array.isArray(raw) ? raw[0]! : raw;
     let node: Record<string, Json> | Json[] = root;
     for (let i = 0; i < parts.length; i++) {
       const seg = parts[i]!;
       const last = i === parts.length - 1;
-      const isIndex = /^\d+$/.test(seg);
+      const isIndex = INDEX.test(seg);
       if (Array.isArray(node) !== isIndex) throw new RequestFieldError(pointer, `"${key}": ${isIndex ? 'an index where a field name was expected' : 'a field name where an index was expected'}.`);
+      if (isIndex && seg.length > 1 && seg.startsWith('0')) throw new RequestFieldError(pointer, `"${key}": an index with a leading zero.`);
       if (isIndex && Number(seg) > MAX_INDEX) throw new RequestFieldError(pointer, `"${key}": index above ${MAX_INDEX}.`);
       const k: string | number = isIndex ? Number(seg) : seg;
       const container = node as Record<string | number, Json>;
+      const existing: Json | undefined = own(container, k) ? container[k] : undefined;
       if (last) {
-        if (container[k] !== undefined) throw new RequestFieldError(pointer, `"${key}" is given twice.`);
+        if (existing !== undefined) {
+          throw new RequestFieldError(pointer, existing !== null && typeof existing === 'object'
+            ? `"${key}" is given both as one value and as a group of fields.`
+            : `"${key}" is given more than once.`);
+        }
         container[k] = value;
       } else {
-        const nextIsIndex = /^\d+$/.test(parts[i + 1]!);
-        let child: Json | undefined = Object.prototype.hasOwnProperty.call(container, k) ? container[k] : undefined;
+        let child = existing;
         if (child === undefined) {
-          child = nextIsIndex ? [] : {};
+          child = INDEX.test(parts[i + 1]!) ? [] : {};
           container[k] = child;
         }
         if (child === null || typeof child !== 'object') throw new RequestFieldError(pointer, `"${key}" nests under a field that has a value.`);
@@ -86,8 +98,10 @@ export function coerce(schema: SchemaLike, value: Json): Json {
     }
     if ((wants(schema, 'number') || wants(schema, 'integer')) && NUMBER.test(value)) return Number(value);
     if (wants(schema, 'boolean')) {
-      if (value === 'true' || value === '1') return true;
-      if (value === 'false' || value === '0') return false;
+      // Spreadsheets write TRUE/FALSE; links often 1/0.
+      const word = value.trim().toLowerCase();
+      if (word === 'true' || word === '1') return true;
+      if (word === 'false' || word === '0') return false;
     }
     return value;
   }
@@ -98,7 +112,7 @@ export function coerce(schema: SchemaLike, value: Json): Json {
   if (value !== null && typeof value === 'object') {
     const props = schema.properties ?? (schema.anyOf ?? []).find((s) => s.properties)?.properties ?? {};
     const out: Record<string, Json> = {};
-    for (const [k, v] of Object.entries(value)) out[k] = props[k] ? coerce(props[k], v) : v;
+    for (const [k, v] of Object.entries(value)) out[k] = own(props, k) ? coerce(props[k]!, v) : v;
     return out;
   }
   return value;

@@ -3,6 +3,7 @@
  * strength from nominal, ratio, governing limit state, status.
  */
 import { CODES, type CheckCode, type LimitCode, type WarningCode } from './codes.js';
+import { EngineError } from './errors.js';
 import { availableStrength, type Factors, type Method } from './provisions/resistance.js';
 
 /** Ratios up to 1 + RATIO_TOLERANCE pass, so that float noise in an exact match cannot fail it. */
@@ -22,6 +23,12 @@ export interface Check {
   demand: number;
   ratio: number;
   pass: boolean;
+  /**
+   * false when the Specification says this limit state need not be checked for the load
+   * (Table J2.5); nominal, available and ratio are then 0 and `note` says why.
+   */
+  applicable?: boolean;
+  note?: string;
 }
 
 export interface Limit {
@@ -120,14 +127,22 @@ export function limit(
  * strength; ties keep the first in check order (weld metal before base metal).
  */
 export function summarise<V>(checks: Check[], limits: Limit[], warnings: Warning[], values: V): EngineResult<V> {
-  let gov = checks[0];
+  // Limit states the Specification exempts for the load case take no part in governing.
+  const candidates = checks.filter((c) => c.applicable !== false);
+  const pool = candidates.length > 0 ? candidates : checks;
+  let gov = pool[0];
   if (!gov) throw new Error('summarise: no checks');
-  const anyDemand = checks.some((c) => c.demand > 0);
-  for (const c of checks) {
+  const anyDemand = pool.some((c) => c.demand > 0);
+  for (const c of pool) {
     if (anyDemand ? c.ratio > gov.ratio : c.available < gov.available) gov = c;
   }
   const governing: Governing = { code: gov.code, available: gov.available, demand: gov.demand, ratio: gov.ratio };
   if (gov.part !== undefined) governing.part = gov.part;
+  for (const c of checks) {
+    if (!Number.isFinite(c.ratio) || !Number.isFinite(c.available)) {
+      throw new EngineError('GEOMETRY_MEANINGLESS', `${c.code} has no strength for these dimensions (available ${c.available}); check the sizes, lengths and thicknesses given.`);
+    }
+  }
   const pass = checks.every((c) => c.pass) && limits.every((l) => l.pass);
   return { status: pass ? 'pass' : 'fail', utilization: gov.ratio, governing, checks, limits, warnings, values };
 }

@@ -51,6 +51,8 @@ export function toProblem(err: unknown, request?: FastifyRequest): ProblemBody {
       return problem(415, 'unsupported-media-type', 'Unsupported media type', 'Send application/json.');
     case 'FST_ERR_CTP_INVALID_TYPE':
       return problem(400, 'malformed-body', 'Malformed body', 'The content-type header is not valid.');
+    case 'FST_ERR_BAD_URL':
+      return problem(400, 'malformed-url', 'Malformed URL', 'The path is not a valid URL (a stray or broken % escape).');
   }
   if (status >= 400 && status < 500) {
     return problem(status, 'client-error', 'Request not accepted', 'The request could not be processed as sent.');
@@ -63,11 +65,19 @@ export function sendProblem(reply: FastifyReply, body: ProblemBody): FastifyRepl
   return reply.code(body.status).type(PROBLEM_TYPE).send(body);
 }
 
+/**
+ * For the server option `frameworkErrors`: errors Fastify raises before routing (a path with a
+ * broken % escape) answer as problem documents too, instead of Fastify's own JSON.
+ */
+export function frameworkErrors(err: FastifyError, request: FastifyRequest, reply: FastifyReply): void {
+  void sendProblem(reply, toProblem(err, request));
+}
+
 export default fp(
   async function problemDetails(app: FastifyInstance) {
     app.setErrorHandler((err, request, reply) => {
       const body = toProblem(err, request);
-      if (body.status < 500) request.log.info({ status: body.status, problem: body.type }, 'request refused');
+      if (body.status < 500) request.log.debug({ status: body.status, problem: body.type }, 'request refused');
       return sendProblem(reply, body);
     });
     app.setNotFoundHandler((request, reply) =>

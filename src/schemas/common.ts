@@ -14,6 +14,12 @@ export function StringEnum<const T extends readonly string[]>(values: T, options
 /** Largest length, thickness or force the contract accepts: well past any real weld, finite. */
 export const MAX_MAGNITUDE = 1e7;
 
+/** Smallest length the contract accepts (in or mm): below it no weld or part exists, and strengths underflow. */
+export const MIN_LENGTH = 0.001;
+
+/** Smallest stress the contract accepts (ksi or MPa). */
+export const MIN_STRESS = 1;
+
 export const FRACTION_PATTERN = '^\\s*(\\d+[ -])?\\d+/\\d+\\s*$|^\\s*\\d+(\\.\\d+)?\\s*$';
 
 export const Method = StringEnum(['LRFD', 'ASD'] as const, {
@@ -28,7 +34,7 @@ export const Id = Type.String({ minLength: 1, maxLength: 128, description: 'Call
 export function Length(description: string) {
   return Type.Union(
     [
-      Type.Number({ exclusiveMinimum: 0, maximum: MAX_MAGNITUDE }),
+      Type.Number({ minimum: MIN_LENGTH, maximum: MAX_MAGNITUDE }),
       Type.String({ pattern: FRACTION_PATTERN, maxLength: 32, description: 'Imperial fraction such as "5/16", "1-1/4" or "1 1/4" (imperial only).' }),
     ],
     { description },
@@ -40,8 +46,8 @@ export const Steel = Type.Union(
     StringEnum(STEEL_NAMES as readonly string[], { description: 'Catalogue grade (GET /v1/catalog/steels).' }),
     Type.Object(
       {
-        fy: Type.Number({ exclusiveMinimum: 0, maximum: 10000, description: 'Specified minimum yield stress, ksi or MPa.' }),
-        fu: Type.Number({ exclusiveMinimum: 0, maximum: 10000, description: 'Specified minimum tensile strength, ksi or MPa.' }),
+        fy: Type.Number({ minimum: MIN_STRESS, maximum: 10000, description: 'Specified minimum yield stress, ksi or MPa.' }),
+        fu: Type.Number({ minimum: MIN_STRESS, maximum: 10000, description: 'Specified minimum tensile strength, ksi or MPa.' }),
       },
       { additionalProperties: false },
     ),
@@ -53,7 +59,7 @@ export const Electrode = Type.Union(
   [
     StringEnum(ELECTRODE_NAMES as readonly string[], { description: 'Electrode classification (GET /v1/catalog/electrodes); E70 = 70 ksi, metric E49 = 490 MPa.' }),
     Type.Object(
-      { fexx: Type.Number({ exclusiveMinimum: 0, maximum: 10000, description: 'Filler metal classification strength FEXX, ksi or MPa.' }) },
+      { fexx: Type.Number({ minimum: MIN_STRESS, maximum: 10000, description: 'Filler metal classification strength FEXX, ksi or MPa.' }) },
       { additionalProperties: false },
     ),
   ],
@@ -86,6 +92,8 @@ export const CheckItem = Type.Object(
     demand: Type.Number(),
     ratio: Type.Number({ description: 'demand / available.' }),
     pass: Type.Boolean(),
+    applicable: Type.Optional(Type.Boolean({ description: 'false when the Specification says this limit state need not be checked for the load (AISC 360-22 Table J2.5); nominal, available and ratio are then 0 and note says why. Absent means true.' })),
+    note: Type.Optional(Type.String({ description: 'Why a check is not applicable, or how it was taken.' })),
   },
   { additionalProperties: false },
 );

@@ -60,8 +60,8 @@ function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, b
 }
 
 export function registerCheck(app: FastifyInstance, op: Operation): void {
-  // The answer's schema is a shared component: one copy in the contract for both forms.
-  app.addSchema(op.response);
+  // The answer's schema is a shared component (added on the root by buildApp): one copy in the
+  // contract for both forms.
   const validate = bodyValidator(op.body);
   const FormatQuery = formatQuery(Object.keys(op.formats ?? {}));
 
