@@ -31,10 +31,10 @@ export const CODES = Object.freeze({
     'Strength of the PJP (or flare) groove weld metal on its effective area, Rn = Fnw·Awe with Fnw = 0.60·FEXX (0.90·FEXX in compression not finished to bear).',
     'Deepen the groove, weld both sides, use a process and position with no throat deduction, or a stronger electrode.'),
   PJP_BASE_METAL_TENSION: entry('check', 'Base metal tension rupture at the PJP fusion face', 'AISC 360-22 Table J2.5',
-    'Tension rupture of a connected part at the fusion face of a PJP groove weld loaded in tension normal to its axis, Rn = Fu·ABM, ABM = effective throat × length (not more than the part).',
+    'Tension rupture of a connected part at the fusion face of a PJP groove weld loaded in tension normal to its axis, Rn = Fu·ABM, ABM = effective throat × length, the throat of each side taken as not more than the part.',
     'Deepen the groove or weld both sides, or use a stronger steel.'),
   PJP_BASE_METAL_COMPRESSION: entry('check', 'Base metal compression at the PJP fusion face', 'AISC 360-22 Table J2.5',
-    'Compression yielding of a connected part at the fusion face of a PJP groove weld loaded in compression normal to its axis, Rn = Fy·ABM, ABM = effective throat × length (not more than the part).',
+    'Compression yielding of a connected part at the fusion face of a PJP groove weld loaded in compression normal to its axis, Rn = Fy·ABM, ABM = effective throat × length, the throat of each side taken as not more than the part.',
     'Deepen the groove or weld both sides, finish the joint to bear, or use a stronger steel.'),
   BASE_METAL_COMPRESSION_YIELD: entry('check', 'Base metal compression yielding across the weld', 'AISC 360-22 §J4.4',
     'Compression yielding of a connected part pushed across the weld line (Lc/r <= 25), Rn = Fy·Ag.',
@@ -63,6 +63,13 @@ export const CODES = Object.freeze({
   BASE_METAL_TENSION_RUPTURE: entry('check', 'Base metal tension rupture across the weld', 'AISC 360-22 §J4.1',
     'Tension rupture of a connected part pulled across the weld line, Rn = Fu·Ae.',
     'Use a thicker part, a stronger steel or a longer weld line.'),
+  // eccentric weld groups
+  WELD_GROUP_ICR: entry('check', 'Weld group strength by the instantaneous centre method', 'AISC Manual Part 8',
+    'In-plane strength of an eccentrically loaded fillet weld group by the instantaneous centre of rotation method: the largest load along the given line at which the element forces (Eq. J2-4 with the directional factor of Eq. J2-5 and the load-deformation law) balance it.',
+    'Use a larger weld, longer or more widely spaced lines, or bring the load closer to the centroid.'),
+  WELD_GROUP_ELASTIC: entry('check', 'Weld group strength by the elastic method', 'AISC Manual Part 8',
+    'Strength of a fillet weld group by the elastic method: direct, torsional and, for loads out of the weld plane, bending stresses combined vectorially at the most stressed point, against Fnw = 0.60·FEXX.',
+    'Use a larger weld, longer or more widely spaced lines, or bring the load closer to the centroid.'),
 
   // ---- detailing limits (limits[]) ----
   // groove welds (PJP and CJP)
@@ -192,6 +199,22 @@ export const CODES = Object.freeze({
   NO_DEMAND_GIVEN: entry('warning', 'No required strength given', '',
     'The request gave no load, so strengths are reported without ratios and the status reflects the detailing limits only.',
     'Give load.force to check the strength.'),
+  // eccentric weld groups
+  WELD_GROUP_CONCENTRIC_RULE: entry('warning', 'Concentric load: Specification rule used', 'AISC 360-22 §J2.4',
+    'The load passes through the centroid of the weld group, so its strength follows the Specification\'s concentric rules (Eq. J2-5 for a linear group, Eq. J2-6a/J2-6b for longitudinal and transverse lines, otherwise Eq. J2-4) rather than the instantaneous centre method.',
+    'None needed; give the real point of application if the load does not pass through the centroid.'),
+  WELD_GROUP_OUT_OF_PLANE_ELASTIC: entry('warning', 'Load out of the weld plane: elastic method used', 'AISC Manual Part 8',
+    'The load has a component normal to the plane of the welds or acts at a distance from that plane, so the group was checked by the elastic method with direct, torsional and bending stresses combined; the instantaneous centre method covers in-plane loads only.',
+    'None needed; check that the point of application and the normal component are as intended.'),
+  WELD_GROUP_ICR_BELOW_ELASTIC: entry('warning', 'Instantaneous centre result below the elastic result', '',
+    'For this load the instantaneous centre capacity is below the elastic capacity without directional increase; the element law gives less than the concentric rules for loads at small angles to the lines near the centroid.',
+    'Either method is a recognised one: give analysis=elastic to check by the elastic method, or review the line of the load.'),
+  WELD_GROUP_DISCRETISATION_COARSE: entry('warning', 'Coarse weld group discretisation', '',
+    'Halving the number of elements changed the instantaneous centre capacity by more than 0.5 %, so the answer may still carry a noticeable discretisation error.',
+    'Give more elements.'),
+  WELD_GROUP_SIZE_CHOSEN: entry('warning', 'Weld size chosen for the load', '',
+    'The request gave no weld size, so the smallest standard fillet size whose strength covers the load (and the minimum size for the parts, when given) was used.',
+    'None needed; give size to check a particular weld.'),
 
   // ---- errors (422 problem answers) ----
   // groove welds (PJP and CJP)
@@ -216,6 +239,25 @@ export const CODES = Object.freeze({
   GEOMETRY_MEANINGLESS: entry('error', 'Geometry without meaning', '',
     'The geometry is well-typed but describes no weld that can exist.',
     'Check the dimensions named in the answer.'),
+  // eccentric weld groups
+  WELD_GROUP_ICR_NOT_CONVERGED: entry('error', 'Instantaneous centre not found', '',
+    'The solver found no motion at which the element forces balance the load within its iteration, work and time bounds.',
+    'Check the geometry and the load; give analysis=elastic, or fewer elements.'),
+  WELD_GROUP_GEOMETRY_ZERO_LENGTH: entry('error', 'Weld segment without length', '',
+    'A segment starts and ends at the same point, so it describes no weld.',
+    'Remove the segment or correct its end points.'),
+  WELD_GROUP_GEOMETRY_OVERLAP: entry('error', 'Overlapping weld segments', '',
+    'Two segments lie on one line and share a length, so that stretch of weld would be counted twice.',
+    'Join or trim the segments so that each stretch of weld appears once.'),
+  WELD_GROUP_LOAD_WITHOUT_DIRECTION: entry('error', 'Load without a direction', '',
+    'Every force component is zero, so the capacity (the largest multiple of the load the group carries) has no direction to be measured in.',
+    'Give the force components, or a magnitude and an angle (a zero magnitude with an angle reports capacities only).'),
+  WELD_GROUP_MOMENT_UNRESISTED: entry('error', 'Moment about the line of single-line welds', '',
+    'All welds lie on one line and the load bends them about that line, which the elastic method cannot resist with welds on a single line.',
+    'Add a weld line off that line, or move the load so that it does not bend the welds about their own line.'),
+  WELD_GROUP_SIZE_OUT_OF_RANGE: entry('error', 'No fillet size carries the load', '',
+    'Sizing found no fillet up to 2 in (50 mm) whose strength covers the load.',
+    'Lengthen the welds, add lines, or bring the load closer to the centroid.'),
 } satisfies Record<string, CodeInfo>);
 
 export type Code = keyof typeof CODES;
