@@ -26,6 +26,11 @@ export default fp(
         tags: [
           { name: 'fillet', description: 'Fillet welds (AISC 360-22 §J2.2, §J2.4)' },
           { name: 'base-metal', description: 'Base metal along weld lines (AISC 360-22 §J4)' },
+          { name: 'groove-pjp', description: 'Partial-joint-penetration groove welds, flare grooves included (AISC 360-22 §J2.1, Table J2.5)' },
+          { name: 'groove-cjp', description: 'Complete-joint-penetration groove welds (AISC 360-22 §J2.1, Table J2.5)' },
+          { name: 'plug-slot', description: 'Plug and slot welds (AISC 360-22 §J2.3)' },
+          { name: 'weld-group', description: 'Eccentrically loaded weld groups (AISC Manual Part 8)' },
+          { name: 'batch', description: 'Many checks in one request, JSON or NDJSON' },
           { name: 'catalog', description: 'Built-in steels and electrodes' },
           { name: 'service', description: 'Health and the contract itself' },
         ],
