@@ -27,13 +27,13 @@ export function flatten(value: Json, prefix = '', out: Array<[string, string]> =
  */
 const FORMULA_START = /^[=+\-@\t\r]/;
 
-function scalar(v: null | boolean | number | string): string {
+export function scalar(v: null | boolean | number | string): string {
   if (v === null) return '';
   if (typeof v === 'string') return FORMULA_START.test(v) ? `'${v}` : v;
   return String(v);
 }
 
-function csvCell(s: string): string {
+export function csvCell(s: string): string {
   return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
 }
 
@@ -47,6 +47,11 @@ export function toCsv(answer: object): string {
  * coded items (checks, limits, warnings), a code: checks.FILLET_WELD_METAL.available.
  */
 export function pickField(answer: object, field: string): string {
+  return scalar(pickValue(answer, field));
+}
+
+/** The raw value of a dotted field (see pickField). */
+export function pickValue(answer: object, field: string): null | boolean | number | string {
   let node: Json = answer as Json;
   for (const seg of field.split('.')) {
     if (Array.isArray(node)) {
@@ -60,5 +65,5 @@ export function pickField(answer: object, field: string): string {
   }
   if (node === undefined) throw new RequestFieldError('/field', `"${field}" is not a field of this answer (try utilization, status, governing.code, governing.available).`);
   if (node !== null && typeof node === 'object') throw new RequestFieldError('/field', `"${field}" is a group of values, not one value; name one of its members.`);
-  return scalar(node);
+  return node;
 }

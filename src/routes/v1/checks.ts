@@ -6,6 +6,7 @@ import type { FastifyInstance, FastifyReply } from 'fastify';
 import { Type } from 'typebox';
 import { pickField, toCsv } from '../../formats.js';
 import { unflatten, coerce } from '../../query.js';
+import { DEFAULT_COLUMNS, MAX_RANGE_VALUES, rangeCsv, rangeTable } from '../../range.js';
 import type { CommonBody, Envelope, Operation } from '../../operations/shared.js';
 import { StringEnum } from '../../schemas/common.js';
 import { bodyValidator, RequestValidationError } from '../../plugins/validation.js';
@@ -94,13 +95,26 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
         '(welds.0.size=5/16&parts.0.thickness=0.5), lists with commas, fractions accepted in imperial. ' +
         'Every field of the POST body is accepted this way.',
       querystring: Type.Object(
-        { format: FormatQuery.properties.format, field: FormatQuery.properties.field },
+        {
+          format: FormatQuery.properties.format,
+          field: FormatQuery.properties.field,
+          vary: Type.Optional(Type.String({ maxLength: 200, description: 'Range table: the dotted name of the one input to vary, e.g. welds.0.size. Answers one row per value (csv by default).' })),
+          values: Type.Optional(Type.String({ maxLength: 4000, description: `Range table: comma list of values for the varied input (at most ${MAX_RANGE_VALUES}).` })),
+          columns: Type.Optional(Type.String({ maxLength: 2000, description: `Range table: comma list of answer fields, one column each (default ${DEFAULT_COLUMNS.join(',')}).` })),
+        },
         { additionalProperties: Type.Union([Type.String(), Type.Array(Type.String())]) },
       ),
       response: { 200: successResponse(op), ...problemResponses() },
     },
     handler: async (request, reply) => {
-      const { format, field, ...rest } = request.query as Record<string, string | string[] | undefined> & { format?: string; field?: string };
+      const { format, field, vary, values, columns, ...rest } = request.query as Record<string, string | string[] | undefined> & { format?: string; field?: string; vary?: string };
+      if (vary !== undefined) {
+        const table = rangeTable(op, validate, rest, vary, values, columns);
+        if (format === 'json') return reply.type('application/json; charset=utf-8').send(JSON.stringify({ vary: table.vary, columns: table.columns, rows: table.rows }));
+        if (format !== undefined && format !== 'csv') throw new RequestFieldError('/format', 'A range table (vary=) answers format=csv (default) or json.');
+        return reply.type('text/csv; charset=utf-8').send(rangeCsv(table));
+      }
+      if (values !== undefined || columns !== undefined) throw new RequestFieldError(values !== undefined ? '/values' : '/columns', 'values= and columns= go with vary= (a range table).');
       const body = coerce(op.body as never, unflatten(rest));
       if (!validate(body)) throw new RequestValidationError(validate.errors ?? [], 'query-form');
       return answer(op, reply, op.run(body as never), body as unknown as CommonBody, format, field);
