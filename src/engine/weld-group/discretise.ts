@@ -1,0 +1,122 @@
+/**
+ * Discretisation of a weld group for the ICR solver: each segment is cut into equal elements
+ * (forces act at element centres, midpoint rule), and the element end points ("nodes", weld
+ * ends included) are the points where the critical deformation ratio du/r is sought.
+ *
+ * Everything lives in flat Float64Arrays built once per solve, so that the solver's iterations
+ * touch no allocator. Coordinates are relative to the group's centroid.
+ */
+import { Fnw, RnWeld } from '../provisions/fillet.js';
+import type { UnitSystem } from '../units.js';
+import { segmentLength, type GroupProperties, type Segment } from './geometry.js';
+
+/** Bounds on the element count (the schema enforces the same). */
+export const MIN_ELEMENTS_PER_SEGMENT = 4;
+export const MAX_ELEMENTS = 20000;
+/** Default: this many elements per segment on average, spread in proportion to length. */
+export const DEFAULT_ELEMENTS_PER_SEGMENT = 100;
+
+export interface Mesh {
+  /** Number of elements and of nodes. */
+  readonly n: number;
+  readonly nodes: number;
+  /** Element centres (relative to the centroid), unit axes, effective size, Fnw·Awe (no increase), length, segment. */
+  readonly x: Float64Array;
+  readonly y: Float64Array;
+  readonly tx: Float64Array;
+  readonly ty: Float64Array;
+  readonly w: Float64Array;
+  readonly strength: Float64Array;
+  readonly len: Float64Array;
+  readonly seg: Int32Array;
+  /** Nodes: position, axis of their segment, effective size, segment. */
+  readonly nx: Float64Array;
+  readonly ny: Float64Array;
+  readonly ntx: Float64Array;
+  readonly nty: Float64Array;
+  readonly nw: Float64Array;
+  readonly nseg: Int32Array;
+  /** First element of each segment (length segments + 1). */
+  readonly segStart: Int32Array;
+  /** Centroid (absolute) and characteristic length (polar radius of gyration). */
+  readonly cx: number;
+  readonly cy: number;
+  readonly lc: number;
+}
+
+/** Elements per segment for a total count, in proportion to length, at least MIN_ELEMENTS_PER_SEGMENT each. */
+export function elementCounts(lengths: readonly number[], total: number): number[] {
+  const sum = lengths.reduce((a, b) => a + b, 0);
+  return lengths.map((l) => Math.max(MIN_ELEMENTS_PER_SEGMENT, Math.round((total * l) / sum)));
+}
+
+/**
+ * Builds the mesh. `sizes` and `throats` are the effective size and throat of each segment;
+ * `counts` the elements of each segment.
+ */
+export function discretise(
+  segments: readonly Segment[],
+  sizes: readonly number[],
+  throats: readonly number[],
+  counts: readonly number[],
+  props: GroupProperties,
+  FEXX: number,
+  units: UnitSystem,
+): Mesh {
+  const n = counts.reduce((a, b) => a + b, 0);
+  const nodes = n + segments.length;
+  const x = new Float64Array(n);
+  const y = new Float64Array(n);
+  const tx = new Float64Array(n);
+  const ty = new Float64Array(n);
+  const w = new Float64Array(n);
+  const strength = new Float64Array(n);
+  const len = new Float64Array(n);
+  const seg = new Int32Array(n);
+  const nx = new Float64Array(nodes);
+  const ny = new Float64Array(nodes);
+  const ntx = new Float64Array(nodes);
+  const nty = new Float64Array(nodes);
+  const nw = new Float64Array(nodes);
+  const nseg = new Int32Array(nodes);
+  const segStart = new Int32Array(segments.length + 1);
+  const [cx, cy] = props.centroid;
+  const fnw = Fnw(FEXX);
+  let e = 0;
+  let k = 0;
+  segments.forEach((s, j) => {
+    const l = segmentLength(s);
+    const m = counts[j]!;
+    const ux = (s.to[0] - s.from[0]) / l;
+    const uy = (s.to[1] - s.from[1]) / l;
+    const x0 = s.from[0] - cx;
+    const y0 = s.from[1] - cy;
+    const dx = s.to[0] - s.from[0];
+    const dy = s.to[1] - s.from[1];
+    const el = l / m;
+    const elementStrength = RnWeld(fnw, throats[j]! * el, units);
+    segStart[j] = e;
+    for (let i = 0; i < m; i++, e++) {
+      const t = (i + 0.5) / m;
+      x[e] = x0 + t * dx;
+      y[e] = y0 + t * dy;
+      tx[e] = ux;
+      ty[e] = uy;
+      w[e] = sizes[j]!;
+      strength[e] = elementStrength;
+      len[e] = el;
+      seg[e] = j;
+    }
+    for (let i = 0; i <= m; i++, k++) {
+      const t = i / m;
+      nx[k] = x0 + t * dx;
+      ny[k] = y0 + t * dy;
+      ntx[k] = ux;
+      nty[k] = uy;
+      nw[k] = sizes[j]!;
+      nseg[k] = j;
+    }
+  });
+  segStart[segments.length] = e;
+  return { n, nodes, x, y, tx, ty, w, strength, len, seg, nx, ny, ntx, nty, nw, nseg, segStart, cx, cy, lc: props.radius };
+}
