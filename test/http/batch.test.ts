@@ -44,7 +44,7 @@ describe('JSON batch', () => {
     const items = mixed(10_000);
     const res = await app.inject({ method: 'POST', url: '/v1/batch', payload: items });
     expect(res.statusCode).toBe(200);
-    const { results, summary } = res.json() as { results: Array<{ id?: string; status: unknown; index?: number; pointer?: string }>; summary: Record<string, number> };
+    const { results, summary } = res.json() as { results: Array<{ id?: string; status: unknown; index?: number; pointer?: string }>; summary: { items: number; pass: number; fail: number; error: number } };
     expect(results).toHaveLength(10_000);
     results.forEach((r, i) => {
       expect(r.id).toBe(`WS-${i}`);
