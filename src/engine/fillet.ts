@@ -91,7 +91,7 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
   const det = DETAILING[sys];
   const electrode = resolveElectrode(req.electrode, sys, '/electrode');
   const FEXX = electrode.fexx;
-  const parts = req.parts.map((p, i) => ({ ...p, steel: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
+  const parts = req.parts.map((p, i) => ({ thickness: p.thickness, edge: p.edge, faces: p.faces, loading: p.loading, steel: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
   const demand = req.demand ?? 0;
   const warnings: Warning[] = [];
   const limits: Limit[] = [];

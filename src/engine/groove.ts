@@ -153,7 +153,7 @@ export interface CjpValues {
 // ------------------------------------------------------------------ shared pieces
 
 function resolveParts(parts: GroovePart[], sys: UnitSystemId): Array<GroovePart & { resolved: ResolvedSteel }> {
-  return parts.map((p, i) => ({ ...p, resolved: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
+  return parts.map((p, i) => Object.assign({}, p, { resolved: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
 }
 
 /** A Table J2.5 row that need not be checked, shown as a check that says so. */

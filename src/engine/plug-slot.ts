@@ -153,7 +153,7 @@ export function checkPlugSlot(req: PlugSlotRequest): EngineResult<PlugSlotValues
     throw new EngineError('GEOMETRY_MEANINGLESS', 'A plug or slot weld joins two lapped parts, exactly one of which contains the holes or slots.', '/parts');
   }
   const holePart = holed[0]!;
-  const parts = req.parts.map((p, i) => ({ ...p, steel: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
+  const parts = req.parts.map((p, i) => Object.assign({}, p, { steel: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
   const t = parts[holePart]!.thickness;
 
   // ---- depth of fill ----

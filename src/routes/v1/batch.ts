@@ -15,7 +15,7 @@
 import { Readable } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fastJson from 'fast-json-stringify';
-import { Type } from 'typebox';
+import { Type, type TSchema } from 'typebox';
 import type { Config } from '../../config.js';
 import type { Operation } from '../../operations/shared.js';
 import { RequestFieldError } from '../../operations/shared.js';
@@ -33,8 +33,14 @@ interface Runner {
 }
 
 export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 'ifc'): Runner {
+  // Items are validated as they come, with `kind` allowed beside the operation's own fields, so
+  // no per-item copy is made to strip it (the operations read only their own fields).
   const kinds = new Map(
-    operations.map((op) => [op.kind, { op, validate: bodyValidator(op.body), serialize: fastJson(op.response as object) as (x: unknown) => string }]),
+    operations.map((op) => {
+      const body = op.body as unknown as { properties: Record<string, unknown> };
+      const withKind = { ...op.body, $id: undefined, properties: { ...body.properties, kind: { type: 'string' } } } as unknown as TSchema;
+      return [op.kind, { op, validate: bodyValidator(withKind), serialize: fastJson(op.response as object) as (x: unknown) => string }] as const;
+    }),
   );
   const BatchProblem = Type.Object(
     { ...Problem.properties, index: Type.Integer(), id: Type.Optional(Type.String()), kind: Type.Optional(Type.String()) },
@@ -49,7 +55,8 @@ export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 
       let kind: string | undefined;
       try {
         if (item === null || typeof item !== 'object' || Array.isArray(item)) throw new RequestFieldError('', 'Each item must be an object { kind, id?, ...inputs }.');
-        const { kind: k, ...body } = item as Record<string, unknown>;
+        const body = item as Record<string, unknown>;
+        const k = body.kind;
         if (typeof body.id === 'string') id = body.id;
         if (typeof k !== 'string' || !kinds.has(k)) throw new RequestFieldError('/kind', `kind must be one of: ${kindList}.`);
         kind = k;
