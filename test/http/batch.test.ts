@@ -171,3 +171,22 @@ describe('NDJSON batch', () => {
     await small.close();
   });
 });
+
+describe('compact results (fields=)', () => {
+  it('keeps only the named answer fields, in item order, with null where an answer has no such field', async () => {
+    const res = await app.inject({ method: 'POST', url: '/v1/batch?fields=status,utilization,governing.code,values.throat', payload: [{ ...fillet, id: 'WS-1' }, { ...baseMetal, id: 'WS-2' }, { kind: 'nope', id: 'WS-3' }] });
+    expect(res.statusCode).toBe(200);
+    const [a, b, c] = res.json().results;
+    const full = (await app.inject({ method: 'POST', url: '/v1/fillet/check', payload: { ...fillet, kind: undefined, id: 'WS-1' } })).json();
+    expect(a).toEqual({ id: 'WS-1', kind: 'fillet', status: full.status, utilization: full.utilization, 'governing.code': full.governing.code, 'values.throat': full.values.throat });
+    expect(b['values.throat']).toBeNull(); // the base-metal answer has no throat
+    expect(c.status).toBe(400); // problems are unchanged
+  });
+  it('works on the NDJSON stream too, and refuses a malformed field list', async () => {
+    const r = await streamBatch([JSON.stringify({ ...fillet, id: 'WS-9' }) + '\n'], '/v1/batch?fields=status');
+    expect(JSON.parse(r.lines[0]!)).toEqual({ id: 'WS-9', kind: 'fillet', status: 'pass' });
+    const bad = await app.inject({ method: 'POST', url: '/v1/batch?fields=status,(x)', payload: [fillet] });
+    expect(bad.statusCode).toBe(400);
+    expect(bad.json().errors[0].pointer).toBe('/fields');
+  });
+});

@@ -22,6 +22,7 @@ import { RequestFieldError } from '../../operations/shared.js';
 import { bodyValidator, RequestValidationError, validatorCompiler } from '../../plugins/validation.js';
 import { problem, PROBLEM_TYPE, sendProblem, toProblem } from '../../plugins/problem.js';
 import { Problem, StringEnum } from '../../schemas/common.js';
+import { pickValue } from '../../formats.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -29,7 +30,28 @@ export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
 type Outcome = 'pass' | 'fail' | 'error';
 
 interface Runner {
-  run(item: unknown, index: number): { json: string; outcome: Outcome };
+  /** Answers one item; with `fields`, a compact result holding only those answer fields. */
+  run(item: unknown, index: number, fields?: readonly string[] | null): { json: string; outcome: Outcome };
+}
+
+/** Compact results: `fields=status,utilization,governing.code` keeps only those answer fields. */
+export const FIELD_NAME = /^[A-Za-z][A-Za-z0-9_]*(\.[A-Za-z0-9_]+)*$/;
+export const MAX_FIELDS = 30;
+
+function project(answer: object, id: string | undefined, kind: string, fields: readonly string[]): string {
+  const out: Record<string, unknown> = {};
+  if (id !== undefined) out.id = id;
+  out.kind = kind;
+  for (const f of fields) {
+    let v: unknown = null;
+    try {
+      v = pickValue(answer, f);
+    } catch {
+      v = null; // a field this kind of answer does not have
+    }
+    out[f] = v;
+  }
+  return JSON.stringify(out);
 }
 
 export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 'ifc'): Runner {
@@ -50,7 +72,7 @@ export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 
   const kindList = [...kinds.keys()].join(', ');
 
   return {
-    run(item, index) {
+    run(item, index, fields) {
       let id: string | undefined;
       let kind: string | undefined;
       try {
@@ -66,7 +88,7 @@ export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 
         const entry = kinds.get(k)!;
         if (!entry.validate(body)) throw new RequestValidationError(entry.validate.errors ?? [], 'body');
         const answer = entry.op.run(body as never);
-        return { json: entry.serialize(answer), outcome: answer.status };
+        return { json: fields ? project(answer, id, k, fields) : entry.serialize(answer), outcome: answer.status };
       } catch (err) {
         const p = toProblem(err);
         const out: Record<string, unknown> = { ...p, index };
@@ -82,6 +104,7 @@ const BatchQuery = Type.Object(
   {
     ids: Type.Optional(StringEnum(['any', 'ifc'] as const, { description: 'ifc: every item id must be an IFC GlobalId (22 characters of the IFC base-64 alphabet).' })),
     summary: Type.Optional(Type.Boolean({ description: 'NDJSON only: end the stream with one line { "summary": {...} }.' })),
+    fields: Type.Optional(Type.String({ maxLength: 2000, description: `Compact results: a comma list of answer fields (dotted, e.g. status,utilization,governing.code,governing.ratio; at most ${MAX_FIELDS}). Each result is then { id, kind, <field>: value } with null where an answer has no such field; problems are unchanged.` })),
   },
   { additionalProperties: false },
 );
@@ -130,8 +153,16 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
     // The ndjson body is a stream, not a value to validate; item validation happens per item.
     validatorCompiler: (route) => (route.httpPart === 'body' ? (value: unknown) => ({ value }) : validatorCompiler(route)),
     handler: async (request: FastifyRequest, reply: FastifyReply) => {
-      const q = request.query as { ids?: 'any' | 'ifc'; summary?: boolean | string };
+      const q = request.query as { ids?: 'any' | 'ifc'; summary?: boolean | string; fields?: string };
       const runner = runners[q.ids === 'ifc' ? 'ifc' : 'any'];
+      let fields: string[] | null = null;
+      if (q.fields !== undefined) {
+        fields = q.fields.split(',').map((f) => f.trim()).filter((f) => f !== '');
+        const bad = fields.find((f) => !FIELD_NAME.test(f));
+        if (fields.length === 0 || fields.length > MAX_FIELDS || bad !== undefined) {
+          return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', `/fields: ${bad !== undefined ? `"${bad}" is not a dotted field name` : `give 1 to ${MAX_FIELDS} field names`}.`, { errors: [{ pointer: '/fields', detail: 'a comma list of dotted answer fields, e.g. status,utilization,governing.code' }] }));
+        }
+      }
       const body = request.body;
       if (Array.isArray(body)) {
         if (body.length > config.BATCH_MAX_ITEMS) {
@@ -140,7 +171,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         const counts = { items: body.length, pass: 0, fail: 0, error: 0 };
         const parts = new Array<string>(body.length);
         for (let i = 0; i < body.length; i++) {
-          const r = runner.run(body[i], i);
+          const r = runner.run(body[i], i, fields);
           parts[i] = r.json;
           counts[r.outcome]++;
         }
@@ -148,7 +179,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
       }
       if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {
         const wantSummary = q.summary === true || q.summary === 'true';
-        const out = Readable.from(ndjsonResults(body as AsyncIterable<Buffer>, runner, config, wantSummary, request));
+        const out = Readable.from(ndjsonResults(body as AsyncIterable<Buffer>, runner, config, wantSummary, request, fields));
         return reply.type('application/x-ndjson; charset=utf-8').send(out);
       }
       return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', 'A batch is a JSON array of items, or NDJSON with one item per line.', { errors: [{ pointer: '', detail: 'must be an array' }] }));
@@ -165,6 +196,7 @@ async function* ndjsonResults(
   config: Config,
   wantSummary: boolean,
   request: FastifyRequest,
+  fields: readonly string[] | null,
 ): AsyncGenerator<string> {
   const counts = { items: 0, pass: 0, fail: 0, error: 0 };
   let pending: Buffer[] = [];
@@ -184,7 +216,7 @@ async function* ndjsonResults(
     let result: { json: string; outcome: Outcome };
     try {
       item = JSON.parse(line);
-      result = runner.run(item, index);
+      result = runner.run(item, index, fields);
     } catch {
       result = { json: JSON.stringify({ ...problem(400, 'malformed-body', 'Malformed item', `Line of item ${index} is not valid JSON.`), index }), outcome: 'error' };
     }
