@@ -62,6 +62,8 @@ export function pickValue(answer: object, field: string): null | boolean | numbe
       node = undefined;
     }
     if (node === undefined) break;
+    // A group that is null in this answer (no recommendation, no centre) reads as an empty value.
+    if (node === null) return null;
   }
   if (node === undefined) throw new RequestFieldError('/field', `"${field}" is not a field of this answer (try utilization, status, governing.code, governing.available).`);
   if (node !== null && typeof node === 'object') throw new RequestFieldError('/field', `"${field}" is a group of values, not one value; name one of its members.`);

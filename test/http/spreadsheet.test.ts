@@ -123,3 +123,13 @@ describe('range tables', () => {
     expect((await app.inject({ url: `${BASE}&welds.0.size=1/4&values=1/4` })).statusCode).toBe(400);
   });
 });
+
+describe('value cells through a group that is null in this answer', () => {
+  it('read as an empty value, not as an unknown field', async () => {
+    // A load through the centroid has no instantaneous centre: values.centre is null.
+    const url = '/v1/weld-group/eccentric?method=LRFD&electrode=E70&size=1/4&segments.0.from=0,0&segments.0.to=0,10&segments.1.from=5,0&segments.1.to=5,10&load.fx=0&load.fy=-30&load.at=2.5,5&format=value&field=values.centre.0';
+    const res = await app.inject({ url });
+    expect(res.statusCode).toBe(200);
+    expect(res.body).toBe('');
+  });
+});
