@@ -215,6 +215,25 @@ export const CODES = Object.freeze({
   WELD_GROUP_SIZE_CHOSEN: entry('warning', 'Weld size chosen for the load', '',
     'The request gave no weld size, so the smallest standard fillet size whose strength covers the load (and the minimum size for the parts, when given) was used.',
     'None needed; give size to check a particular weld.'),
+  // fillet sizing
+  SIZING_ELECTRODE_CHOSEN: entry('warning', 'Electrode chosen to match the parts', '',
+    'The request asked for the matching electrode, so the weakest classification of the unit system\'s catalogue that is not under-matched for the strongest connected part was used.',
+    'None needed; name an electrode to size with another one.'),
+  SIZING_NO_COMPLIANT_WELD: entry('warning', 'No compliant fillet weld in the search', '',
+    'No fillet weld among the sizes and lengths searched passes every strength check and detailing limit; the checks shown are those of the strongest weld searched, and values.blocking says what blocks the search and which changes unblock it.',
+    'Apply one of the changes listed in values.blocking.unblock.'),
+  SIZING_SIZE_LIMITS_CROSS: entry('warning', 'Size limits leave no fillet size', 'AISC 360-22 §J2.2b',
+    'The minimum size for the thinner part (Table J2.4) is larger than the largest size allowed along an edge, by the size preferences, or on the size step, so no fillet size can be searched.',
+    'Use a thicker edge part, allow a larger size, call for the weld to be built out to full throat, or use a finer size step.'),
+  SIZING_BASE_METAL_TOO_THIN: entry('warning', 'Base metal too weak for the available length', 'AISC 360-22 §J2.4',
+    'Even the longest weld line available does not develop the demand in the base metal of a connected part (§J4), whatever the fillet size, so no weld size can pass.',
+    'Use a thicker or stronger part, or a longer weld line.'),
+  SIZING_LENGTH_UNAVAILABLE: entry('warning', 'Weld length not enough for the demand', 'AISC 360-22 §J2.4',
+    'The largest fillet size allowed, over the longest length available, is weaker than the demand.',
+    'Use a longer weld, more lines, a larger size if a preference limits it, or a stronger electrode.'),
+  SIZING_INTERMITTENT_SPACING: entry('warning', 'Intermittent weld: spacing outside the checks', '',
+    'The weld shown is intermittent. The fillet rules checked set the least segment length but no greatest gap; member provisions (stitch spacing of built-up members, sealing against corrosion) may limit the gap and are outside these checks.',
+    'Check the spacing against the member provisions, or set preferences.intermittent false for a continuous weld.'),
 
   // ---- errors (422 problem answers) ----
   // groove welds (PJP and CJP)
@@ -258,6 +277,10 @@ export const CODES = Object.freeze({
   WELD_GROUP_SIZE_OUT_OF_RANGE: entry('error', 'No fillet size carries the load', '',
     'Sizing found no fillet up to 2 in (50 mm) whose strength covers the load.',
     'Lengthen the welds, add lines, or bring the load closer to the centroid.'),
+  // fillet sizing
+  SIZING_SEARCH_TOO_LARGE: entry('error', 'Fillet sizing search too large', '',
+    'The sizes and lengths the request asks to search (sizes in the size step between the size limits, lengths in the length step up to the available length, intermittent layouts) are more candidates than one request may check.',
+    'Use a coarser length step, a shorter available length, a smaller largest size, or no intermittent layouts.'),
 } satisfies Record<string, CodeInfo>);
 
 export type Code = keyof typeof CODES;
