@@ -1,14 +1,29 @@
 /**
  * buildApp: registers plugins, then routes. Used by the server and by tests (which build the
  * app without a port and close it after each test).
+ *
+ * Order matters for the hooks that every request meets, in this order: request id and security
+ * headers; CORS (a preflight is answered here, and refusals below still carry the CORS headers a
+ * browser needs to read them); metrics; load shedding; then, per route, the rate limit and the
+ * API-key check; then body parsing (size and depth limits) and the route itself.
  */
-import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions } from 'fastify';
+import type { Server as HttpServer } from 'node:http';
+import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions, type RouteOptions } from 'fastify';
 import { OneLineLog } from './plugins/request-log.js';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
-import { CONFIG_DEFAULTS, type Config } from './config.js';
+import { apiKeyHashes, corsOrigins, resolveConfig, trustProxy, type Config } from './config.js';
+import auth, { KeyRing, REDACT_PATHS } from './plugins/auth.js';
+import availability, { LoadMonitor } from './plugins/availability.js';
 import caching from './plugins/caching.js';
+import { clientErrorHandler } from './plugins/client-errors.js';
+import cors from './plugins/cors.js';
+import jsonBody from './plugins/json-body.js';
+import metricsPlugin, { instrument, metricsRoute, ServiceMetrics } from './plugins/metrics.js';
 import openapi from './plugins/openapi.js';
+import { cachingSerializerFactory } from './plugins/serializers.js';
 import problemDetails, { frameworkErrors } from './plugins/problem.js';
+import rateLimits from './plugins/rate-limit.js';
+import security, { requestId } from './plugins/security.js';
 import { validatorCompiler } from './plugins/validation.js';
 import { OPERATIONS } from './operations/index.js';
 import { registerCheck } from './routes/v1/checks.js';
@@ -17,41 +32,82 @@ import healthRoutes, { type ReadinessState } from './routes/health.js';
 import batchRoutes from './routes/v1/batch.js';
 
 export interface AppOptions {
+  /** Settings over the defaults; validated like the environment (a bad one throws ConfigError). */
   config?: Partial<Config>;
   logger?: FastifyServerOptions['logger'];
   /** A ready-made pino logger (the server passes one with an asynchronous destination). */
   loggerInstance?: FastifyBaseLogger;
   /** Shared with the server so that shutdown can turn readiness off. */
   readiness?: ReadinessState;
+  /** Load shedding's view of the event loop (tests pass one with a simulated delay). */
+  loadMonitor?: LoadMonitor;
+}
+
+/** Adds credential redaction to a logger configuration given as options. */
+function withRedaction(logger: FastifyServerOptions['logger']): FastifyServerOptions['logger'] {
+  if (logger === true) return { redact: REDACT_PATHS };
+  if (logger && typeof logger === 'object' && !('child' in logger)) return { redact: REDACT_PATHS, ...logger };
+  return logger ?? false;
+}
+
+/** TRUST_PROXY for Fastify: a hop count becomes "trust the nearest n hops". */
+function fastifyTrustProxy(value: boolean | number | string[]): boolean | string[] | ((address: string, hop: number) => boolean) {
+  return typeof value === 'number' ? (_address: string, hop: number) => hop < value : value;
 }
 
 export async function buildApp(options: AppOptions = {}): Promise<FastifyInstance> {
-  const config = { ...CONFIG_DEFAULTS, ...options.config };
+  const config = resolveConfig(options.config);
+  const readiness = options.readiness ?? { ready: true };
+  const monitor = options.loadMonitor ?? new LoadMonitor({ limitMs: config.OVERLOAD_EVENT_LOOP_DELAY_MS });
+  const keys = new KeyRing(apiKeyHashes(config));
+  const metrics = new ServiceMetrics();
+  const operations = OPERATIONS.map((op) => instrument(op, metrics));
+
   const app = Fastify({
-    ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: options.logger ?? false }),
+    ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: withRedaction(options.logger) }),
     logController: new OneLineLog(),
     bodyLimit: config.BODY_LIMIT,
-    requestIdHeader: 'x-request-id',
+    genReqId: requestId,
+    trustProxy: fastifyTrustProxy(trustProxy(config)),
+    // Whole request received within the longest any route allows; each route's own bound is its
+    // handler timeout (which starts before the body is read).
+    requestTimeout: config.BATCH_TIMEOUT_MS,
+    handlerTimeout: config.REQUEST_TIMEOUT_MS,
+    // Requests that arrive on an open connection while the app closes are still answered.
+    return503OnClosing: false,
     routerOptions: { maxParamLength: 200, ignoreTrailingSlash: true },
     frameworkErrors,
+    clientErrorHandler,
+    schemaController: { compilersFactory: { buildSerializer: cachingSerializerFactory as never } },
   }).withTypeProvider<TypeBoxTypeProvider>();
+  (app.server as HttpServer).headersTimeout = Math.min(config.REQUEST_TIMEOUT_MS, 60000);
   app.setValidatorCompiler(validatorCompiler);
   // Only JSON (and NDJSON on the batch route) is accepted: a text body is a 415, not a parse attempt.
   app.removeContentTypeParser('text/plain');
   // Shared schemas go on the root before any plugin compiles a route against them.
   for (const op of OPERATIONS) app.addSchema(op.response);
-  app.addHook('onSend', async (_request, reply, payload) => {
-    reply.header('x-content-type-options', 'nosniff');
-    return payload;
-  });
 
   await app.register(problemDetails);
-  await app.register(caching);
+  await app.register(jsonBody, { maxDepth: config.JSON_MAX_DEPTH });
+  await app.register(security);
+  await app.register(cors, { origins: corsOrigins(config) });
+  await app.register(metricsPlugin, { metrics });
+  await app.register(availability, { monitor, readiness });
+  await app.register(rateLimits, { max: config.RATE_LIMIT_MAX, windowMs: config.RATE_LIMIT_WINDOW_MS, keys });
+  await app.register(auth, { keys, metricsRequireKey: config.METRICS_REQUIRE_KEY });
+  await app.register(caching, { private: keys.enabled });
+  app.addHook('onRoute', (route: RouteOptions) => {
+    if (route.url === '/v1/batch') route.handlerTimeout = config.BATCH_TIMEOUT_MS;
+  });
+
   await app.register(openapi, { docs: config.DOCS });
-  await app.register(healthRoutes, { readiness: options.readiness ?? { ready: true } });
+  await app.register(healthRoutes, { readiness, overloaded: () => monitor.overloaded });
+  if (config.METRICS) {
+    metricsRoute(app, metrics, () => ({ ready: readiness.ready && !monitor.overloaded, overloaded: monitor.overloaded, eventLoopDelayMs: monitor.delayMs }));
+  }
   await app.register(catalogRoutes);
-  for (const op of OPERATIONS) registerCheck(app, op);
-  await app.register(batchRoutes, { config, operations: OPERATIONS });
+  for (const op of operations) registerCheck(app, op, { chromiumPath: config.CHROMIUM_PATH });
+  await app.register(batchRoutes, { config, operations });
   // Some spreadsheet web functions probe a URL with OPTIONS, then HEAD, then GET, and give up
   // when OPTIONS fails: answer it on every path with the methods the service uses.
   app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>

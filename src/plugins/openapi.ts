@@ -13,7 +13,16 @@ import { ENGINE_VERSION } from '../version.js';
 export const API_DESCRIPTION =
   'Throatline checks welded joints of structural steel to AISC 360-22 Chapter J (§J2 welds, §J4 affected elements): ' +
   'every answer says pass or fail, which limit state governs (a stable code), every check with its clause, the detailing limits and warnings.\n\n' +
-  `**Caution.** ${NOTICE}`;
+  `**Caution.** ${NOTICE}\n\n` +
+  '**Access.** A deployment may require an API key (`Authorization: Bearer <key>` or the `x-throatline-key` header; 401 without one) and may limit ' +
+  'requests per key or client address (429 with `Retry-After`); a replica under overload answers 503 with `Retry-After`. Every refusal is an RFC 9457 problem document. ' +
+  '/healthz, /readyz, this contract and /docs never need a key.';
+
+/** Both ways of presenting an API key; optional, since a deployment decides whether keys are required. */
+export const SECURITY_SCHEMES = {
+  bearerKey: { type: 'http', scheme: 'bearer', description: 'API key as a bearer token: `Authorization: Bearer <key>`.' },
+  headerKey: { type: 'apiKey', in: 'header', name: 'x-throatline-key', description: 'API key in a header of its own.' },
+} as const;
 
 export default fp(
   async function openapi(app: FastifyInstance, opts: { docs?: boolean }) {
@@ -23,6 +32,8 @@ export default fp(
         openapi: '3.1.0',
         info: { title: 'Throatline weld design service', version: ENGINE_VERSION.replace(/^throatline /, ''), description: API_DESCRIPTION, license: { name: 'Proprietary', identifier: 'LicenseRef-Throatline' } },
         servers: [{ url: 'http://localhost:3000', description: 'Local service with the embedded default configuration' }],
+        components: { securitySchemes: SECURITY_SCHEMES },
+        security: [{}, { bearerKey: [] }, { headerKey: [] }],
         tags: [
           { name: 'fillet', description: 'Fillet welds (AISC 360-22 §J2.2, §J2.4)' },
           { name: 'base-metal', description: 'Base metal along weld lines (AISC 360-22 §J4)' },

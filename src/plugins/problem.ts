@@ -20,8 +20,22 @@ export function problem(status: number, slug: string, title: string, detail: str
   return { type: problemType(slug), title, status, detail, ...extra };
 }
 
+/**
+ * An error that carries the problem document to answer with: refusals raised outside a route
+ * handler (authentication, rate limiting, body limits) are thrown as these.
+ */
+export class ProblemError extends Error {
+  readonly problem: ProblemBody;
+  constructor(body: ProblemBody) {
+    super(body.detail);
+    this.name = 'ProblemError';
+    this.problem = body;
+  }
+}
+
 /** Maps any thrown error to a problem document. Exported so batch items fail the same way. */
 export function toProblem(err: unknown, request?: FastifyRequest): ProblemBody {
+  if (err instanceof ProblemError) return err.problem;
   if (err instanceof EngineError) {
     const info = CODES[err.code];
     const out = problem(422, 'unanswerable', info.title, err.message, { code: err.code });
@@ -51,6 +65,8 @@ export function toProblem(err: unknown, request?: FastifyRequest): ProblemBody {
       return problem(415, 'unsupported-media-type', 'Unsupported media type', 'Send application/json.');
     case 'FST_ERR_CTP_INVALID_TYPE':
       return problem(400, 'malformed-body', 'Malformed body', 'The content-type header is not valid.');
+    case 'FST_ERR_HANDLER_TIMEOUT':
+      return problem(408, 'request-timeout', 'Request timeout', 'The request was not received and answered within the time this service allows; send the body without pauses, or split a large batch.');
     case 'FST_ERR_BAD_URL':
       return problem(400, 'malformed-url', 'Malformed URL', 'The path is not a valid URL (a stray or broken % escape).');
   }

@@ -134,6 +134,32 @@ describe('Dockerfile stages', () => {
     expect(users[users.length - 1]!.line).toBeLessThan(ops(RUNTIME, 'CMD')[0]!.line);
   });
 
+  it('the runtime user is numeric and not root, so an orchestrator can verify runAsNonRoot', () => {
+    const users = ops(RUNTIME, 'USER');
+    const [uid, gid] = users[users.length - 1]!.args.split(':');
+    expect(uid).toMatch(/^[1-9]\d*$/);
+    if (gid !== undefined) expect(gid).toMatch(/^[1-9]\d*$/);
+  });
+
+  it('the runtime cannot rewrite its own code: nothing is copied to, chowned to or chmodded for the runtime user', () => {
+    for (const c of ops(RUNTIME, 'COPY')) expect(c.args).not.toMatch(/--chown|--chmod/);
+    for (const r of ops(RUNTIME, 'RUN')) expect(r.args).not.toMatch(/\bchown\b|\bchmod\b/);
+  });
+
+  it('the runtime has no package manager (npm, npx, corepack removed) and no build tools', () => {
+    const removal = ops(RUNTIME, 'RUN').map((r) => r.args).join(' ');
+    for (const tool of ['/usr/local/lib/node_modules/npm', '/usr/local/bin/npx', '/usr/local/bin/corepack']) expect(removal).toContain(tool);
+    expect(removal).not.toMatch(/apt-get install|\bapk add\b/);
+    // Nothing after the removal may need npm.
+    const removedAt = ops(RUNTIME, 'RUN').find((r) => r.args.includes('/usr/local/lib/node_modules/npm'))!.line;
+    for (const ins of RUNTIME.instructions.filter((i) => i.line > removedAt)) expect(ins.args).not.toMatch(/\bnpm\b|\bnpx\b/);
+  });
+
+  it('stops with SIGTERM (the signal the service drains on)', () => {
+    const stop = ops(RUNTIME, 'STOPSIGNAL').map((s) => s.args);
+    expect(stop.length === 0 || stop[stop.length - 1] === 'SIGTERM').toBe(true);
+  });
+
   it('sets HOST, PORT and NODE_ENV for a container and exposes the port', () => {
     const env = ops(RUNTIME, 'ENV').map((e) => e.args).join(' ');
     expect(env).toMatch(/\bHOST=0\.0\.0\.0\b/);

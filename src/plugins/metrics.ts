@@ -1,0 +1,135 @@
+/**
+ * Prometheus metrics at GET /metrics (text exposition format), with prom-client.
+ *
+ * Per app (a registry of its own, so tests can build many apps in one process):
+ * - throatline_http_requests_total{method,route,status}: answers, by route pattern (never the
+ *   raw URL, so query strings and unknown paths cannot blow up the series count; an unmatched
+ *   path is route="unmatched") and status code;
+ * - throatline_http_request_duration_seconds{method,route,status}: latency histogram;
+ * - throatline_calculations_total{kind,status,governing}: calculations answered, single or in a
+ *   batch or a range table, by weld family, pass/fail/refused and the governing code (for a
+ *   refused one, the error code; "none" when nothing governs, e.g. no load given);
+ * - throatline_event_loop_delay_seconds and throatline_overloaded: what load shedding sees;
+ * - throatline_ready: 1 while /readyz answers 200.
+ * Per process (registered once): prom-client's default metrics: process CPU and memory
+ * (process_resident_memory_bytes, nodejs_heap_size_used_bytes, ...), event-loop delay
+ * (nodejs_eventloop_lag_seconds, nodejs_eventloop_lag_p99_seconds, ...) and GC.
+ */
+import type { FastifyInstance } from 'fastify';
+import fp from 'fastify-plugin';
+import { Counter, Gauge, Histogram, Registry, collectDefaultMetrics } from 'prom-client';
+import { Type } from 'typebox';
+import { EngineError } from '../engine/errors.js';
+import type { Envelope, Operation } from '../operations/shared.js';
+
+export const METRICS_CONTENT_TYPE = 'text/plain; version=0.0.4; charset=utf-8';
+const LATENCY_BUCKETS = [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60];
+
+let processRegistry: Registry | undefined;
+
+/** Process-wide metrics, collected on each scrape; set up once however many apps are built. */
+function processMetrics(): Registry {
+  if (!processRegistry) {
+    processRegistry = new Registry();
+    collectDefaultMetrics({ register: processRegistry, eventLoopMonitoringPrecision: 10 });
+  }
+  return processRegistry;
+}
+
+export class ServiceMetrics {
+  readonly registry = new Registry();
+  readonly requests = new Counter({ name: 'throatline_http_requests_total', help: 'HTTP answers by method, route pattern and status.', labelNames: ['method', 'route', 'status'] as const, registers: [this.registry] });
+  readonly duration = new Histogram({
+    name: 'throatline_http_request_duration_seconds',
+    help: 'Time from request to the end of the answer, by method, route pattern and status.',
+    labelNames: ['method', 'route', 'status'] as const,
+    buckets: LATENCY_BUCKETS,
+    registers: [this.registry],
+  });
+  readonly calculations = new Counter({
+    name: 'throatline_calculations_total',
+    help: 'Calculations answered (single, batch items, range-table rows) by kind, status (pass, fail, refused) and governing code (error code when refused).',
+    labelNames: ['kind', 'status', 'governing'] as const,
+    registers: [this.registry],
+  });
+  readonly eventLoopDelay = new Gauge({ name: 'throatline_event_loop_delay_seconds', help: 'Mean event-loop delay over the last sampling window, as load shedding sees it.', registers: [this.registry] });
+  readonly overloaded = new Gauge({ name: 'throatline_overloaded', help: '1 while new work is shed because the event loop lags.', registers: [this.registry] });
+  readonly ready = new Gauge({ name: 'throatline_ready', help: '1 while /readyz answers 200.', registers: [this.registry] });
+
+  /** Counts one answered (or refused) calculation. */
+  calculation(kind: string, answer: Pick<Envelope<unknown>, 'status' | 'governing'>): void {
+    const governing = (answer.governing as { code?: string } | null | undefined)?.code ?? 'none';
+    this.calculations.inc({ kind, status: answer.status, governing });
+  }
+
+  refused(kind: string, code: string): void {
+    this.calculations.inc({ kind, status: 'refused', governing: code });
+  }
+
+  /** The exposition text: process metrics, then this app's. */
+  async text(): Promise<string> {
+    const [a, b] = await Promise.all([processMetrics().metrics(), this.registry.metrics()]);
+    return `${a.trimEnd()}\n${b}`;
+  }
+}
+
+/**
+ * The same operation with its run counted: wraps where every answer is produced, so the check
+ * routes (both forms, range tables) and batch items are all counted without touching them.
+ */
+export function instrument<O extends Operation>(op: O, metrics: ServiceMetrics): O {
+  return {
+    ...op,
+    run(body: never) {
+      try {
+        const answer = op.run(body);
+        metrics.calculation(op.kind, answer);
+        return answer;
+      } catch (err) {
+        if (err instanceof EngineError) metrics.refused(op.kind, err.code);
+        throw err;
+      }
+    },
+  };
+}
+
+export interface MetricGauges {
+  ready: boolean;
+  overloaded: boolean;
+  eventLoopDelayMs: number;
+}
+
+/** Registers GET /metrics; `gauges` is read at each scrape. */
+export function metricsRoute(app: FastifyInstance, metrics: ServiceMetrics, gauges: () => MetricGauges): void {
+  app.get('/metrics', {
+    schema: {
+      operationId: 'metrics',
+      tags: ['service'],
+      summary: 'Prometheus metrics (text exposition format)',
+      description: 'Request counts and latency histograms by route pattern and status, calculations by kind and governing code, event-loop delay, process memory and CPU.',
+      response: { 200: { description: 'Metrics in the Prometheus text format 0.0.4.', content: { 'text/plain': { schema: Type.String() } } } },
+    },
+    logLevel: 'warn',
+    handler: async (_request, reply) => {
+      const g = gauges();
+      metrics.ready.set(g.ready ? 1 : 0);
+      metrics.overloaded.set(g.overloaded ? 1 : 0);
+      metrics.eventLoopDelay.set(g.eventLoopDelayMs / 1000);
+      return reply.type(METRICS_CONTENT_TYPE).send(await metrics.text());
+    },
+  });
+}
+
+/** Counts every answer (route pattern, method, status, latency); the route comes separately. */
+export default fp(
+  async function metricsPlugin(app: FastifyInstance, opts: { metrics: ServiceMetrics }) {
+    const { metrics } = opts;
+    processMetrics();
+    app.addHook('onResponse', async (request, reply) => {
+      const labels = { method: request.method, route: request.routeOptions.url ?? 'unmatched', status: String(reply.statusCode) };
+      metrics.requests.inc(labels);
+      metrics.duration.observe(labels, reply.elapsedTime / 1000);
+    });
+  },
+  { name: 'metrics' },
+);
