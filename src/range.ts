@@ -75,6 +75,30 @@ export function rangeTable(
   return { vary, columns: cols, rows };
 }
 
+/** An XML name made of letters, digits, dots, dashes and underscores, not starting with a digit. */
+const XML_NAME = /^[A-Za-z_][A-Za-z0-9._-]*$/;
+
+function xmlText(s: string): string {
+  return s.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+}
+
+/**
+ * The table as XML for spreadsheet formulas that pick a column with an XPath
+ * (FILTERXML(WEBSERVICE(url), "//row/utilization") fills one column with one formula):
+ * `<table vary="welds.0.size"><row><welds.0.size>1/8</welds.0.size><status>fail</status>...</row>...</table>`,
+ * one element per column named after it, empty where the CSV cell is empty.
+ */
+export function rangeXml(t: RangeTable): string {
+  const names = [t.vary, ...t.columns];
+  const bad = names.find((n) => !XML_NAME.test(n));
+  if (bad !== undefined) throw new RequestFieldError(bad === t.vary ? '/vary' : '/columns', `"${bad}" cannot name an XML element; use format=csv for this table.`);
+  const rows = t.rows.map((r) => `<row>${[r.value, ...r.cells].map((c, i) => {
+    const text = scalar(c);
+    return text === '' ? `<${names[i]}/>` : `<${names[i]}>${xmlText(text)}</${names[i]}>`;
+  }).join('')}</row>`);
+  return `<?xml version="1.0" encoding="UTF-8"?>\n<table vary="${xmlText(t.vary)}">\n${rows.map((r) => `${r}\n`).join('')}</table>\n`;
+}
+
 export function rangeCsv(t: RangeTable): string {
   const head = [t.vary, ...t.columns].map(csvCell).join(',');
   return `${head}\r\n${t.rows.map((r) => [r.value, ...r.cells].map((c) => csvCell(scalar(c))).join(',')).join('\r\n')}\r\n`;

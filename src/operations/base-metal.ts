@@ -2,7 +2,7 @@
 import { Type, type Static } from 'typebox';
 import { checkBaseMetal } from '../engine/base-metal.js';
 import type { SteelSpec } from '../engine/materials.js';
-import { Envelope, Id, Length, Load, Method, Steel, StringEnum, Units } from '../schemas/common.js';
+import { Envelope, Id, Length, Load, Method, SheetFields, Steel, StringEnum, Units } from '../schemas/common.js';
 import { envelope, length, type Operation } from './shared.js';
 
 export const BaseMetalBody = Type.Object(
@@ -10,6 +10,7 @@ export const BaseMetalBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     part: Type.Object(
       {
         thickness: Length('Thickness of the part.'),

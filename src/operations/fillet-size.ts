@@ -2,7 +2,7 @@
 import { Type, type Static } from 'typebox';
 import type { ElectrodeSpec, SteelSpec } from '../engine/materials.js';
 import { sizeFillet, type SizingRequest } from '../engine/sizing.js';
-import { CheckCode, Electrode, Envelope, Id, Length, Method, StringEnum, Units } from '../schemas/common.js';
+import { CheckCode, Electrode, Envelope, Id, Length, Method, SheetFields, StringEnum, Units } from '../schemas/common.js';
 import { FilletPart, FilletValues } from './fillet.js';
 import { RequestFieldError, envelope, length, type Operation } from './shared.js';
 
@@ -42,6 +42,7 @@ export const FilletSizeBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Type.Union([Electrode, StringEnum(['match'] as const, { description: 'Choose the matching classification for the strongest part.' })], {
       description: 'Filler metal by classification or FEXX, or "match" to choose the weakest catalogue classification of the unit system that matches the strongest part.',
     }),

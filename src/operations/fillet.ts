@@ -2,7 +2,7 @@
 import { Type, type Static } from 'typebox';
 import { checkFillet, type FilletLine, type FilletRequest } from '../engine/fillet.js';
 import type { SteelSpec, ElectrodeSpec } from '../engine/materials.js';
-import { Electrode, Envelope, Id, Length, Load, Method, Steel, StringEnum, Units } from '../schemas/common.js';
+import { Electrode, Envelope, Id, Length, Load, Method, SheetFields, Steel, StringEnum, Units } from '../schemas/common.js';
 import { RequestFieldError, envelope, length, type Operation } from './shared.js';
 
 export const FilletWeld = Type.Object(
@@ -43,6 +43,7 @@ export const FilletCheckBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Electrode,
     welds: Type.Array(FilletWeld, { minItems: 1, maxItems: 50, description: 'Weld lines of one joint, loaded through the group\'s centroid.' }),
     parts: Type.Array(FilletPart, { minItems: 1, maxItems: 4, description: 'The connected parts; parts[0] and parts[1] carry legs[0] and legs[1].' }),

@@ -11,7 +11,7 @@ import { Type, type Static } from 'typebox';
 import { checkCjp, checkPjp, type CjpRequest, type PjpRequest } from '../engine/groove.js';
 import type { ElectrodeSpec, SteelSpec } from '../engine/materials.js';
 import { GROOVE_LOAD_CASES, GROOVE_TYPES, WELD_POSITIONS, WELD_PROCESSES, isFlare, positionMatters } from '../engine/provisions/groove.js';
-import { Electrode, Envelope, Id, Length, Method, Steel, StringEnum, Units } from '../schemas/common.js';
+import { Electrode, Envelope, Id, Length, Method, SheetFields, Steel, StringEnum, Units } from '../schemas/common.js';
 import { RequestFieldError, envelope, length, type Operation } from './shared.js';
 
 const LoadCase = StringEnum(GROOVE_LOAD_CASES, {
@@ -60,6 +60,7 @@ export const PjpCheckBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Electrode,
     groove: PjpGroove,
     length: Length('Length of the weld.'),
@@ -238,6 +239,7 @@ export const CjpCheckBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Electrode,
     length: Length('Length of the weld.'),
     load: CjpLoad,

@@ -2,7 +2,7 @@
 import { Type, type Static } from 'typebox';
 import { checkPlugSlot, type HolePattern, type PlugSlotRequest, type SlotEnd } from '../engine/plug-slot.js';
 import type { ElectrodeSpec, SteelSpec } from '../engine/materials.js';
-import { Electrode, Envelope, Id, Length, Method, Steel, StringEnum, Units } from '../schemas/common.js';
+import { Electrode, Envelope, Id, Length, Method, SheetFields, Steel, StringEnum, Units } from '../schemas/common.js';
 import { RequestFieldError, envelope, length, type Operation } from './shared.js';
 
 const SLOT_ENDS = ['semicircular', 'rounded', 'to-edge'] as const;
@@ -53,6 +53,7 @@ export const PlugSlotCheckBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Electrode,
     hole: PlugSlotHole,
     fill: Type.Optional(Length('Depth of fill of each hole or slot (the thickness of the weld). Default: the least the rule allows.')),

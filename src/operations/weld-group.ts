@@ -5,7 +5,7 @@ import { analyseWeldGroup, type WeldGroupFigure, type WeldGroupRequest, type Wel
 import { MAX_ELEMENTS } from '../engine/weld-group/discretise.js';
 import { SHAPE_NAMES, type Segment, type ShapeName } from '../engine/weld-group/geometry.js';
 import { renderWeldGroupSvg } from '../report/weld-group-svg.js';
-import { Electrode, Envelope, Id, Length, MAX_MAGNITUDE, Method, Steel, StringEnum, Units } from '../schemas/common.js';
+import { Electrode, Envelope, Id, Length, MAX_MAGNITUDE, Method, SheetFields, Steel, StringEnum, Units } from '../schemas/common.js';
 import { RequestFieldError, envelope, length, type Envelope as EnvelopeOf, type Operation } from './shared.js';
 
 const PATH = '/v1/weld-group/eccentric';
@@ -56,6 +56,7 @@ export const WeldGroupBody = Type.Object(
     id: Type.Optional(Id),
     method: Method,
     units: Type.Optional(Units),
+    sheet: Type.Optional(SheetFields),
     electrode: Electrode,
     size: Type.Optional(Length('Fillet leg size w, one for the whole group. Omit it to get the smallest standard size that carries the load.')),
     segments: Type.Optional(Type.Array(WeldSegment, { minItems: 1, maxItems: 50, description: 'The welds as straight segments. Give segments or shape.' })),

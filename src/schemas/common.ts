@@ -30,6 +30,19 @@ export const Units = StringEnum(['imperial', 'metric'] as const, {
 });
 export const Id = Type.String({ minLength: 1, maxLength: 128, description: 'Caller\'s identifier (BIM element id, spreadsheet row key), echoed back unchanged.' });
 
+/** Header fields of the calculation sheet (format=html or pdf). The calculation never reads them. */
+const SheetText = (max: number, description: string) => Type.String({ maxLength: max, description });
+export const SheetFields = Type.Object(
+  {
+    project: Type.Optional(SheetText(200, 'Project name.')),
+    mark: Type.Optional(SheetText(128, 'Connection mark, such as WS-B12. Default: id.')),
+    preparedBy: Type.Optional(SheetText(100, 'Who prepared the calculation.')),
+    checkedBy: Type.Optional(SheetText(100, 'Who checked it.')),
+    date: Type.Optional(SheetText(40, 'Date as it should read on the sheet. The service prints no date of its own, so the same request gives the same sheet.')),
+  },
+  { additionalProperties: false, description: 'Header of the calculation sheet (format=html or pdf): project, connection mark, prepared by, checked by, date. Not used by the calculation.' },
+);
+
 /** A positive length in the request's unit; in imperial also a fraction string like "5/16" or "1-1/4". */
 export function Length(description: string) {
   return Type.Union(

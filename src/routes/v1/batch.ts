@@ -23,6 +23,8 @@ import { bodyValidator, RequestValidationError, validatorCompiler } from '../../
 import { problem, PROBLEM_TYPE, sendProblem, toProblem } from '../../plugins/problem.js';
 import { Problem, StringEnum } from '../../schemas/common.js';
 import { pickValue } from '../../formats.js';
+import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
+import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -104,6 +106,7 @@ const BatchQuery = Type.Object(
   {
     ids: Type.Optional(StringEnum(['any', 'ifc'] as const, { description: 'ifc: every item id must be an IFC GlobalId (22 characters of the IFC base-64 alphabet).' })),
     summary: Type.Optional(Type.Boolean({ description: 'NDJSON only: end the stream with one line { "summary": {...} }.' })),
+    format: Type.Optional(StringEnum(['json', 'html'] as const, { description: `html (or Accept: text/html) with a JSON array: one page with a summary table, failing items first, and every item's calculation sheet (at most ${MAX_HTML_BATCH_ITEMS} items).` })),
     fields: Type.Optional(Type.String({ maxLength: 2000, description: `Compact results: a comma list of answer fields (dotted, e.g. status,utilization,governing.code,governing.ratio; at most ${MAX_FIELDS}). Each result is then { id, kind, <field>: value } with null where an answer has no such field; problems are unchanged.` })),
   },
   { additionalProperties: false },
@@ -145,6 +148,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
           content: {
             'application/json': { schema: Type.Object({ results: Type.Array(Type.Object({}, { additionalProperties: true })), summary: Summary }) },
             'application/x-ndjson': { schema: Type.String({ description: 'One result per line.' }) },
+            'text/html': { schema: Type.String({ description: 'format=html: the summary page with every item\'s calculation sheet.' }) },
           },
         },
         400: { description: 'The batch itself is malformed.', content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } },
@@ -153,7 +157,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
     // The ndjson body is a stream, not a value to validate; item validation happens per item.
     validatorCompiler: (route) => (route.httpPart === 'body' ? (value: unknown) => ({ value }) : validatorCompiler(route)),
     handler: async (request: FastifyRequest, reply: FastifyReply) => {
-      const q = request.query as { ids?: 'any' | 'ifc'; summary?: boolean | string; fields?: string };
+      const q = request.query as { ids?: 'any' | 'ifc'; summary?: boolean | string; fields?: string; format?: 'json' | 'html' };
       const runner = runners[q.ids === 'ifc' ? 'ifc' : 'any'];
       let fields: string[] | null = null;
       if (q.fields !== undefined) {
@@ -164,6 +168,13 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         }
       }
       const body = request.body;
+      if (q.format === 'html' || (q.format === undefined && prefersHtml(request.headers.accept))) {
+        if (!Array.isArray(body)) return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', 'format=html answers a JSON array of items, not NDJSON.', { errors: [{ pointer: '', detail: 'must be an array' }] }));
+        if (body.length > MAX_HTML_BATCH_ITEMS) {
+          return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large for one page', `format=html puts every item's sheet on one page: at most ${MAX_HTML_BATCH_ITEMS} items, this batch has ${body.length}. Split it, or ask for JSON or NDJSON.`));
+        }
+        return reply.type(HTML_TYPE).send(batchHtml(body, (item, i) => runner.run(item, i, null), operations));
+      }
       if (Array.isArray(body)) {
         if (body.length > config.BATCH_MAX_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));

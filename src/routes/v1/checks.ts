@@ -6,12 +6,13 @@ import type { FastifyInstance, FastifyReply } from 'fastify';
 import { Type } from 'typebox';
 import { pickField, toCsv } from '../../formats.js';
 import { unflatten, coerce } from '../../query.js';
-import { DEFAULT_COLUMNS, MAX_RANGE_VALUES, rangeCsv, rangeTable } from '../../range.js';
+import { DEFAULT_COLUMNS, MAX_RANGE_VALUES, rangeCsv, rangeTable, rangeXml } from '../../range.js';
 import type { CommonBody, Envelope, Operation } from '../../operations/shared.js';
 import { StringEnum } from '../../schemas/common.js';
 import { bodyValidator, RequestValidationError } from '../../plugins/validation.js';
 import { RequestFieldError } from '../../operations/shared.js';
 import { PROBLEM_TYPE } from '../../plugins/problem.js';
+import { closePdfBrowsers, replySheet, SHEET_FORMATS, sheetContent } from '../../report/respond.js';
 
 const BASE_FORMATS = ['json', 'csv', 'value'] as const;
 
@@ -34,6 +35,8 @@ function problemResponses() {
   return {
     400: { description: 'Invalid request: the errors list points at each offending field.', ...ref },
     422: { description: 'Well-formed, but the engineering rules cannot answer it; the code says why.', ...ref },
+    501: { description: 'format=pdf on a host without a headless Chromium (format=html gives the same sheet).', ...ref },
+    503: { description: 'format=pdf: the browser failed or ran out of time printing the sheet.', ...ref },
   };
 }
 
@@ -42,6 +45,7 @@ function successResponse(op: Operation) {
     'application/json': { schema: Type.Ref((op.response as { $id: string }).$id) },
     'text/csv': { schema: Type.String({ description: 'Header row of dotted field names and one data row.' }) },
     'text/plain': { schema: Type.String({ description: 'One bare value (format=value).' }) },
+    ...sheetContent(),
   };
   for (const [name, f] of Object.entries(op.formats ?? {})) {
     content[f.contentType.split(';')[0]!] = { schema: Type.String({ description: `format=${name}` }) };
@@ -49,9 +53,17 @@ function successResponse(op: Operation) {
   return { description: 'The check, in the requested format.', content };
 }
 
-function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined): FastifyReply | object {
+/** The GET form also answers a range table as XML (format=xml with vary=). */
+function rangeResponse(r: ReturnType<typeof successResponse>) {
+  return { ...r, content: { ...r.content, 'application/xml': { schema: Type.String({ description: 'Range table (vary= with format=xml).' }) } } };
+}
+
+async function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined, options: CheckRouteOptions): Promise<FastifyReply | object> {
   const extra = format ? op.formats?.[format] : undefined;
   if (extra) return reply.type(extra.contentType).send(extra.render(result, body));
+  // The calculation sheet: format=html or pdf, or a browser's Accept header.
+  const sheet = await replySheet(reply, { op, answer: result as never, body: body as unknown as Record<string, unknown> }, format, options.chromiumPath);
+  if (sheet) return sheet;
   if (format === 'value') {
     if (!field) throw new RequestFieldError('/field', 'format=value needs field=, e.g. field=utilization.');
     return reply.type('text/plain; charset=utf-8').send(pickField(result, field));
@@ -60,11 +72,23 @@ function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, b
   return result;
 }
 
-export function registerCheck(app: FastifyInstance, op: Operation): void {
+export interface CheckRouteOptions {
+  /** Headless Chromium for format=pdf (config CHROMIUM_PATH); empty or absent: the usual paths. */
+  chromiumPath?: string;
+}
+
+/** Apps that already close the PDF browser on shutdown. */
+const closesBrowser = new WeakSet<FastifyInstance>();
+
+export function registerCheck(app: FastifyInstance, op: Operation, options: CheckRouteOptions = {}): void {
+  if (!closesBrowser.has(app)) {
+    closesBrowser.add(app);
+    app.addHook('onClose', async () => closePdfBrowsers());
+  }
   // The answer's schema is a shared component (added on the root by buildApp): one copy in the
   // contract for both forms.
   const validate = bodyValidator(op.body);
-  const FormatQuery = formatQuery(Object.keys(op.formats ?? {}));
+  const FormatQuery = formatQuery([...Object.keys(op.formats ?? {}), ...SHEET_FORMATS]);
 
   app.post(op.path, {
     schema: {
@@ -81,7 +105,7 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
     handler: async (request, reply) => {
       const q = request.query as { format?: string; field?: string };
       const body = request.body as CommonBody;
-      return answer(op, reply, op.run(body as never), body, q.format, q.field);
+      return answer(op, reply, op.run(body as never), body, q.format, q.field, options);
     },
   });
 
@@ -96,7 +120,11 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
         'Every field of the POST body is accepted this way.',
       querystring: Type.Object(
         {
-          format: FormatQuery.properties.format,
+          format: Type.Optional(
+            StringEnum([...new Set([...BASE_FORMATS, ...Object.keys(op.formats ?? {}), ...SHEET_FORMATS, 'xml'])], {
+              description: `${(FormatQuery.properties.format as { description?: string }).description ?? ''} With vary= (a range table): csv (default), json, or xml (one row element per value, one element per column, for FILTERXML).`,
+            }),
+          ),
           field: FormatQuery.properties.field,
           vary: Type.Optional(Type.String({ maxLength: 200, description: 'Range table: the dotted name of the one input to vary, e.g. welds.0.size. Answers one row per value (csv by default).' })),
           values: Type.Optional(Type.String({ maxLength: 4000, description: `Range table: comma list of values for the varied input (at most ${MAX_RANGE_VALUES}).` })),
@@ -104,20 +132,22 @@ export function registerCheck(app: FastifyInstance, op: Operation): void {
         },
         { additionalProperties: Type.Union([Type.String(), Type.Array(Type.String())]) },
       ),
-      response: { 200: successResponse(op), ...problemResponses() },
+      response: { 200: rangeResponse(successResponse(op)), ...problemResponses() },
     },
     handler: async (request, reply) => {
       const { format, field, vary, values, columns, ...rest } = request.query as Record<string, string | string[] | undefined> & { format?: string; field?: string; vary?: string };
       if (vary !== undefined) {
         const table = rangeTable(op, validate, rest, vary, values, columns);
         if (format === 'json') return reply.type('application/json; charset=utf-8').send(JSON.stringify({ vary: table.vary, columns: table.columns, rows: table.rows }));
-        if (format !== undefined && format !== 'csv') throw new RequestFieldError('/format', 'A range table (vary=) answers format=csv (default) or json.');
+        if (format === 'xml') return reply.type('application/xml; charset=utf-8').send(rangeXml(table));
+        if (format !== undefined && format !== 'csv') throw new RequestFieldError('/format', 'A range table (vary=) answers format=csv (default), json or xml.');
         return reply.type('text/csv; charset=utf-8').send(rangeCsv(table));
       }
+      if (format === 'xml' && !op.formats?.xml) throw new RequestFieldError('/format', 'format=xml answers range tables (vary=) only.');
       if (values !== undefined || columns !== undefined) throw new RequestFieldError(values !== undefined ? '/values' : '/columns', 'values= and columns= go with vary= (a range table).');
       const body = coerce(op.body as never, unflatten(rest));
       if (!validate(body)) throw new RequestValidationError(validate.errors ?? [], 'query-form');
-      return answer(op, reply, op.run(body as never), body as unknown as CommonBody, format, field);
+      return answer(op, reply, op.run(body as never), body as unknown as CommonBody, format, field, options);
     },
   });
 }
