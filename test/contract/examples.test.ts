@@ -5,7 +5,9 @@
  *
  * A file under openapi/examples/ is named after the POST route it is for: the path without
  * /v1/, slashes as dashes (fillet-check.json is for POST /v1/fillet/check), optionally with a
- * suffix after a dot (fillet-check.metric.json).
+ * suffix after a dot (fillet-check.metric.json). Files named batch-*.json are batch exports and
+ * their expected summaries (batch-workshop.json, batch-workshop.summary.json), not request
+ * examples of one route: test/http/workshop-batch.test.ts runs them.
  */
 import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -17,7 +19,7 @@ import { app as build } from '../helpers.js';
 
 const EXAMPLES_DIR = fileURLToPath(new URL('../../openapi/examples/', import.meta.url));
 const FILES = readdirSync(EXAMPLES_DIR)
-  .filter((f) => f.endsWith('.json'))
+  .filter((f) => f.endsWith('.json') && !f.startsWith('batch-'))
   .sort();
 
 interface MediaType {
