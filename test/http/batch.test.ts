@@ -190,3 +190,14 @@ describe('compact results (fields=)', () => {
     expect(bad.json().errors[0].pointer).toBe('/fields');
   });
 });
+
+describe('a large JSON batch shares the event loop', () => {
+  it('a health check sent while a 10,000-item batch is being answered returns first', async () => {
+    const order: string[] = [];
+    const batch = app.inject({ method: 'POST', url: '/v1/batch', payload: mixed(10_000) }).then(() => order.push('batch'));
+    await new Promise((r) => setTimeout(r, 20)); // let the batch start
+    const health = app.inject({ url: '/healthz' }).then(() => order.push('health'));
+    await Promise.all([batch, health]);
+    expect(order).toEqual(['health', 'batch']);
+  });
+});
