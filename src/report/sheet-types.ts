@@ -1,52 +1,15 @@
 /**
- * What a calculation sheet reads: the answer envelope (loosely, so that any operation's answer
- * can be drawn, including ones added later) and the parts of an operation it needs.
+ * What a calculation sheet reads: the answer envelope of any operation (its values loosely, so
+ * that operations added later can be drawn) and the parts of an operation it needs.
  */
 import type { TSchema } from 'typebox';
+import type { Check, Limit } from '../engine/result.js';
+import type { Envelope } from '../operations/shared.js';
 
-export interface CheckItemLike {
-  code: string;
-  title: string;
-  clause: string;
-  equation: string;
-  part?: number;
-  nominal: number;
-  phi?: number;
-  omega?: number;
-  available: number;
-  demand: number;
-  ratio: number;
-  pass: boolean;
-  applicable?: boolean;
-  note?: string;
-}
-
-export interface LimitItemLike {
-  code: string;
-  title: string;
-  clause: string;
-  weld?: number;
-  part?: number;
-  required: number;
-  provided: number;
-  sense: 'min' | 'max';
-  pass: boolean;
-  note?: string;
-}
-
-export interface SheetAnswer {
-  id?: string;
-  status: 'pass' | 'fail';
-  utilization: number;
-  governing: { code: string; part?: number; available: number; demand: number; ratio: number };
-  checks: CheckItemLike[];
-  limits: LimitItemLike[];
-  warnings: Array<{ code: string; message: string }>;
-  values: unknown;
-  units: { length: string; force: string; stress: string };
-  basis: { standard: string; method: 'LRFD' | 'ASD'; engine: string };
-  notice: string;
-}
+/** The engine's own shapes: a sheet draws exactly what the answer holds. */
+export type CheckItemLike = Check;
+export type LimitItemLike = Limit;
+export type SheetAnswer = Envelope<unknown>;
 
 /** The parts of an Operation a sheet uses. */
 export interface SheetOperation {
