@@ -33,7 +33,7 @@ type Outcome = 'pass' | 'fail' | 'error';
 
 interface Runner {
   /** Answers one item; with `fields`, a compact result holding only those answer fields. */
-  run(item: unknown, index: number, fields?: readonly string[] | null): { json: string; outcome: Outcome };
+  run(item: unknown, index: number, fields?: readonly string[] | null, idFormat?: 'any' | 'ifc'): { json: string; outcome: Outcome };
 }
 
 /** Compact results: `fields=status,utilization,governing.code` keeps only those answer fields. */
@@ -56,7 +56,7 @@ function project(answer: object, id: string | undefined, kind: string, fields: r
   return JSON.stringify(out);
 }
 
-export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 'ifc'): Runner {
+export function batchRunner(operations: readonly Operation[], defaultIds: 'any' | 'ifc' = 'any'): Runner {
   // Items are validated as they come, with `kind` allowed beside the operation's own fields, so
   // no per-item copy is made to strip it (the operations read only their own fields).
   const kinds = new Map(
@@ -74,7 +74,7 @@ export function batchRunner(operations: readonly Operation[], idFormat: 'any' | 
   const kindList = [...kinds.keys()].join(', ');
 
   return {
-    run(item, index, fields) {
+    run(item, index, fields, idFormat = defaultIds) {
       let id: string | undefined;
       let kind: string | undefined;
       try {
@@ -119,7 +119,12 @@ const Summary = Type.Object(
 
 export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[] }): Promise<void> {
   const { config, operations } = opts;
-  const runners = { any: batchRunner(operations, 'any'), ifc: batchRunner(operations, 'ifc') };
+  // One set of compiled validators and serializers serves both id formats.
+  const shared = batchRunner(operations);
+  const runners: Record<'any' | 'ifc', Runner> = {
+    any: shared,
+    ifc: { run: (item, index, fields) => shared.run(item, index, fields, 'ifc') },
+  };
   const kinds = operations.map((o) => o.kind);
 
   // NDJSON bodies reach the handler as the raw request stream.
