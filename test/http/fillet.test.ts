@@ -6,7 +6,7 @@ import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import type { FastifyInstance } from 'fastify';
-import { app as build } from '../helpers.js';
+import { app as build, readCsv } from '../helpers.js';
 
 let app: FastifyInstance;
 beforeAll(async () => {
@@ -61,39 +61,6 @@ function at(value: unknown, path: string): unknown {
     node = (node as Record<string, unknown>)[seg];
   }
   return node;
-}
-
-/** A small RFC 4180 reader: rows of cells, quotes doubled inside quoted cells. */
-function readCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i]!;
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (c === '"') quoted = false;
-      else cell += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') {
-      row.push(cell);
-      cell = '';
-    } else if (c === '\r' && text[i + 1] === '\n') {
-      row.push(cell);
-      rows.push(row);
-      row = [];
-      cell = '';
-      i++;
-    } else cell += c;
-  }
-  if (cell !== '' || row.length > 0) {
-    row.push(cell);
-    rows.push(row);
-  }
-  return rows;
 }
 
 /** Every scalar leaf of a JSON answer as [dotted path, value]. */

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FastifyInstance } from 'fastify';
 import { Ajv } from 'ajv';
-import { app as build } from '../helpers.js';
+import { app as build, readCsv } from '../helpers.js';
 import { PlugSlotCheckResponse } from '../../src/operations/plug-slot.js';
 
 let app: FastifyInstance;
@@ -58,34 +58,6 @@ const get = (query: string) => app.inject({ method: 'GET', url: `${PATH}?${query
 
 const validateAnswer = new Ajv({ strict: false }).compile(PlugSlotCheckResponse);
 
-/** RFC 4180 rows: cells split on commas outside quotes, doubled quotes inside quoted cells. */
-function readCsv(text: string): string[][] {
-  const rows: string[][] = [];
-  let row: string[] = [];
-  let cell = '';
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i]!;
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') {
-        cell += '"';
-        i++;
-      } else if (c === '"') quoted = false;
-      else cell += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') {
-      row.push(cell);
-      cell = '';
-    } else if (c === '\r' && text[i + 1] === '\n') {
-      row.push(cell);
-      rows.push(row);
-      row = [];
-      cell = '';
-      i++;
-    } else cell += c;
-  }
-  return rows;
-}
 
 function problemOf(res: { statusCode: number; headers: Record<string, unknown>; json: () => unknown }) {
   expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
