@@ -13,32 +13,11 @@ import { checkFillet, type FilletLine, type FilletPart, type FilletRequest } fro
 import { checkBaseMetal } from '../../src/engine/base-metal.js';
 import { EngineError } from '../../src/engine/errors.js';
 import type { Check, EngineResult, Limit } from '../../src/engine/result.js';
+import { line, part, req } from '../fillet-fixtures.js';
 
 // ---------- local request builders ----------
 
-function line(size: number, length: number, over: Partial<FilletLine> = {}): FilletLine {
-  return { legs: [size, size], length, angle: 0, count: 1, endLoaded: false, builtOut: false, intermittent: null, ...over };
-}
-
-function part(thickness: number, steel: FilletPart['steel'] = 'A992', over: Partial<FilletPart> = {}): FilletPart {
-  return { thickness, steel, edge: false, faces: 1, loading: 'shear', ...over };
-}
-
 /** Default: 5/16 in E70 fillet, 10 in, longitudinal, LRFD, between two 1 in A992 parts. */
-function req(over: Partial<FilletRequest> = {}): FilletRequest {
-  return {
-    method: 'LRFD',
-    units: 'imperial',
-    electrode: 'E70',
-    welds: [line(0.3125, 10)],
-    parts: [part(1), part(1)],
-    demand: null,
-    directionalIncrease: true,
-    lap: null,
-    flatBarWidth: null,
-    ...over,
-  };
-}
 
 function close(actual: number, expected: number, tol = 1e-9): void {
   const slack = tol * Math.abs(expected);

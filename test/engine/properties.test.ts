@@ -9,34 +9,12 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { checkFillet, type FilletLine, type FilletPart, type FilletRequest } from '../../src/engine/fillet.js';
 import type { Check, EngineResult } from '../../src/engine/result.js';
+import { line, part, req } from '../fillet-fixtures.js';
 
 const RUNS = { numRuns: 300 };
 const MM = 25.4;
 const KN = 4.4482216152605;
 const MPA = 6.894757293168;
-
-function line(size: number, length: number, over: Partial<FilletLine> = {}): FilletLine {
-  return { legs: [size, size], length, angle: 0, count: 1, endLoaded: false, builtOut: false, intermittent: null, ...over };
-}
-
-function part(thickness: number, steel: FilletPart['steel'], over: Partial<FilletPart> = {}): FilletPart {
-  return { thickness, steel, edge: false, faces: 1, loading: 'shear', ...over };
-}
-
-function req(over: Partial<FilletRequest> = {}): FilletRequest {
-  return {
-    method: 'LRFD',
-    units: 'imperial',
-    electrode: 'E70',
-    welds: [line(0.3125, 10)],
-    parts: [part(1, 'A992'), part(1, 'A992')],
-    demand: null,
-    directionalIncrease: true,
-    lap: null,
-    flatBarWidth: null,
-    ...over,
-  };
-}
 
 const weldMetal = (r: EngineResult<unknown>): Check => {
   const c = r.checks.find((x) => x.code === 'FILLET_WELD_METAL');

@@ -20,29 +20,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkFillet, type FilletLine, type FilletPart, type FilletRequest } from '../../src/engine/fillet.js';
 import type { Check, EngineResult } from '../../src/engine/result.js';
-
-function line(size: number, length: number, over: Partial<FilletLine> = {}): FilletLine {
-  return { legs: [size, size], length, angle: 0, count: 1, endLoaded: false, builtOut: false, intermittent: null, ...over };
-}
-
-function part(thickness: number, steel: FilletPart['steel'], over: Partial<FilletPart> = {}): FilletPart {
-  return { thickness, steel, edge: false, faces: 1, loading: 'shear', ...over };
-}
-
-function req(over: Partial<FilletRequest> = {}): FilletRequest {
-  return {
-    method: 'LRFD',
-    units: 'imperial',
-    electrode: 'E70',
-    welds: [line(0.3125, 10)],
-    parts: [part(1, 'A992'), part(1, 'A992')],
-    demand: null,
-    directionalIncrease: true,
-    lap: null,
-    flatBarWidth: null,
-    ...over,
-  };
-}
+import { line, part, req } from '../fillet-fixtures.js';
 
 function rel(actual: number, expected: number, tol: number): void {
   expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);

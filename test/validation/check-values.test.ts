@@ -11,28 +11,7 @@ import { checkFillet, type FilletLine, type FilletRequest } from '../../src/engi
 import { endLoadedLength, kds, te } from '../../src/engine/provisions/fillet.js';
 import { lMin, tMatch, wMaxEdge, wMin } from '../../src/engine/provisions/detailing.js';
 import type { EngineResult } from '../../src/engine/result.js';
-
-function line(size: number, length: number, over: Partial<FilletLine> = {}): FilletLine {
-  return { legs: [size, size], length, angle: 0, count: 1, endLoaded: false, builtOut: false, intermittent: null, ...over };
-}
-
-function req(over: Partial<FilletRequest> = {}): FilletRequest {
-  return {
-    method: 'LRFD',
-    units: 'imperial',
-    electrode: 'E70',
-    welds: [line(0.3125, 10)],
-    parts: [
-      { thickness: 1, steel: 'A992', edge: false, faces: 1, loading: 'shear' },
-      { thickness: 1, steel: 'A992', edge: false, faces: 1, loading: 'shear' },
-    ],
-    demand: null,
-    directionalIncrease: true,
-    lap: null,
-    flatBarWidth: null,
-    ...over,
-  };
-}
+import { line, req } from '../fillet-fixtures.js';
 
 const weldAvailable = (r: EngineResult<unknown>): number => r.checks.find((c) => c.code === 'FILLET_WELD_METAL')!.available;
 
