@@ -42,3 +42,4 @@ export function readCsv(text: string): string[][] {
   }
   return rows;
 }
+

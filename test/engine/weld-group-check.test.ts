@@ -13,7 +13,7 @@ import { EngineError } from '../../src/engine/errors.js';
 import { KN_PER_KIP, MM_PER_IN, MPA_PER_KSI } from '../../src/engine/units.js';
 import { analyseWeldGroup, type WeldGroupRequest } from '../../src/engine/weld-group/check.js';
 import type { ShapeName, ShapeSpec } from '../../src/engine/weld-group/geometry.js';
-
+import { rel, codeOf } from '../assert.js';
 
 function req(over: Partial<WeldGroupRequest> = {}): WeldGroupRequest {
   return {
@@ -40,18 +40,6 @@ const load = (direction: [number, number, number], magnitude: number, where: { a
   eccentricity: where.eccentricity ?? null,
   standoff: where.standoff ?? 0,
 });
-function rel(actual: number, expected: number, tol: number): void {
-  expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);
-}
-function codeOf(fn: () => unknown): string | undefined {
-  try {
-    fn();
-  } catch (err) {
-    if (err instanceof EngineError) return err.code;
-    throw err;
-  }
-  return undefined;
-}
 
 describe('which method governs', () => {
   it('an eccentric in-plane load: the ICR check, with the elastic result beside it', () => {

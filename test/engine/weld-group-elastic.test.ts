@@ -11,15 +11,12 @@ import { EngineError } from '../../src/engine/errors.js';
 import { IMPERIAL } from '../../src/engine/units.js';
 import { elasticCapacity } from '../../src/engine/weld-group/elastic.js';
 import { groupProperties, shapeSegments, type Segment } from '../../src/engine/weld-group/geometry.js';
+import { rel } from '../assert.js';
 
 const W = 0.25;
 const TE = W * Math.SQRT1_2;
 /** 0.60 × 70 ksi × 0.17678 in = 7.4246 kip/in (Eq. J2-4 per inch of a 1/4 in E70 fillet), the numerator of every capacity below. */
 const RN = 0.6 * 70 * TE;
-
-function rel(actual: number, expected: number, tol: number): void {
-  expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);
-}
 
 function run(segments: Segment[], f: [number, number, number], arm: [number, number, number]) {
   const props = groupProperties(segments, segments.map(() => TE));

@@ -8,18 +8,9 @@ import { EngineError } from '../../src/engine/errors.js';
 import { IMPERIAL } from '../../src/engine/units.js';
 import { discretise, elementCounts } from '../../src/engine/weld-group/discretise.js';
 import { cosSinDeg, groupProperties, segmentLength, shapeSegments, validateSegments, type Segment } from '../../src/engine/weld-group/geometry.js';
+import { codeOf } from '../assert.js';
 
 const at = (i: number) => `/segments/${i}`;
-
-function codeOf(fn: () => unknown): string | undefined {
-  try {
-    fn();
-  } catch (err) {
-    if (err instanceof EngineError) return err.code;
-    throw err;
-  }
-  return undefined;
-}
 
 describe('shape shortcuts', () => {
   it('C: back at x = 0, flanges to x = width, open towards +x', () => {

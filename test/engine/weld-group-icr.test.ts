@@ -16,6 +16,7 @@ import { IMPERIAL } from '../../src/engine/units.js';
 import { discretise, elementCounts } from '../../src/engine/weld-group/discretise.js';
 import { groupProperties, segmentLength, shapeSegments, type Segment, type ShapeSpec } from '../../src/engine/weld-group/geometry.js';
 import { evaluateMotion, solveIcr, type IcrLoad, type IcrOptions } from '../../src/engine/weld-group/icr-solver.js';
+import { rel } from '../assert.js';
 
 const W = 0.25; // in
 const TE = W * Math.SQRT1_2;
@@ -32,9 +33,6 @@ function shape(spec: Partial<ShapeSpec> & Pick<ShapeSpec, 'shape' | 'height'>): 
 }
 function solve(segments: Segment[], load: IcrLoad, total = 300, options: IcrOptions = {}) {
   return solveIcr(meshOf(segments, total), load, options);
-}
-function rel(actual: number, expected: number, tol: number): void {
-  expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);
 }
 
 describe('element law (provisions/icr.ts)', () => {

@@ -21,10 +21,7 @@ import { describe, expect, it } from 'vitest';
 import { checkFillet, type FilletLine, type FilletPart, type FilletRequest } from '../../src/engine/fillet.js';
 import type { Check, EngineResult } from '../../src/engine/result.js';
 import { line, part, req } from '../fillet-fixtures.js';
-
-function rel(actual: number, expected: number, tol: number): void {
-  expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);
-}
+import { rel } from '../assert.js';
 
 function check(r: EngineResult<unknown>, code: Check['code'], partIndex?: number): Check {
   const c = r.checks.find((x) => x.code === code && (partIndex === undefined || x.part === partIndex));

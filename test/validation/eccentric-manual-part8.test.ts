@@ -25,6 +25,7 @@
 import { describe, expect, it } from 'vitest';
 import { analyseWeldGroup, type WeldGroupRequest } from '../../src/engine/weld-group/check.js';
 import type { ShapeName } from '../../src/engine/weld-group/geometry.js';
+import { rel } from '../assert.js';
 
 function req(shape: ShapeName, height: number, width: number, direction: [number, number, number], eccentricity: number, over: Partial<WeldGroupRequest> = {}): WeldGroupRequest {
   return {
@@ -42,9 +43,6 @@ function req(shape: ShapeName, height: number, width: number, direction: [number
     estimateError: false,
     ...over,
   };
-}
-function rel(actual: number, expected: number, tol: number): void {
-  expect(Math.abs(actual / expected - 1), `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(tol);
 }
 const C = (r: ReturnType<typeof analyseWeldGroup>) => r.result.values.coefficient!.C;
 
