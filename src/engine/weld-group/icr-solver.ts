@@ -151,15 +151,10 @@ class Workspace {
     const nty = M.nty;
     const nw = M.nw;
     if (this.minNode >= 0) {
-      const k = this.minNode;
-      const ddx = u - om * ny[k]!;
-      const ddy = v + om * nx[k]!;
-      const rho = Math.sqrt(ddx * ddx + ddy * ddy);
-      if (rho > RHO_MIN) {
-        const c = ntx[k]! * ddy - nty[k]! * ddx;
-        const d = ntx[k]! * ddx + nty[k]! * ddy;
-        best = deltaU(Math.atan2(Math.abs(c), Math.abs(d)) * DEG, nw[k]!) / rho;
-        bi = k;
+      const r = nodeRatio(M, this.minNode, u, v, om);
+      if (r < Number.POSITIVE_INFINITY) {
+        best = r;
+        bi = this.minNode;
       }
     }
     for (let k = 0; k < nN; k++) {
@@ -180,15 +175,10 @@ class Workspace {
     this.minRatio = best;
     this.minNode = bi;
     if (this.forced >= 0) {
-      const k = this.forced;
-      const ddx = u - om * ny[k]!;
-      const ddy = v + om * nx[k]!;
-      const rho = Math.sqrt(ddx * ddx + ddy * ddy);
-      if (rho <= RHO_MIN) return false;
-      const c = ntx[k]! * ddy - nty[k]! * ddx;
-      const d = ntx[k]! * ddx + nty[k]! * ddy;
-      best = deltaU(Math.atan2(Math.abs(c), Math.abs(d)) * DEG, nw[k]!) / rho;
-      bi = k;
+      const r = nodeRatio(M, this.forced, u, v, om);
+      if (r === Number.POSITIVE_INFINITY) return false;
+      best = r;
+      bi = this.forced;
     }
     const sigma = best;
     this.crit = bi;
@@ -671,17 +661,23 @@ function latticePoint(k: number, count: number, out: Float64Array): void {
   out[2] = z;
 }
 
-/** du/|δ| of node k at motion m. */
-function ratioOf(ws: Workspace, k: number, m: Float64Array): number {
-  const M = ws.mesh;
-  const om = m[2]! / M.lc;
-  const ddx = m[0]! - om * M.ny[k]!;
-  const ddy = m[1]! + om * M.nx[k]!;
-  const rho = Math.hypot(ddx, ddy);
+/**
+ * du/|δ| of node k for the motion (u, v, ω): its deformation capacity over its deformation per
+ * unit motion; infinite for a node on the centre.
+ */
+function nodeRatio(M: Mesh, k: number, u: number, v: number, om: number): number {
+  const ddx = u - om * M.ny[k]!;
+  const ddy = v + om * M.nx[k]!;
+  const rho = Math.sqrt(ddx * ddx + ddy * ddy);
   if (rho <= RHO_MIN) return Number.POSITIVE_INFINITY;
   const c = M.ntx[k]! * ddy - M.nty[k]! * ddx;
   const d = M.ntx[k]! * ddx + M.nty[k]! * ddy;
   return deltaU(Math.atan2(Math.abs(c), Math.abs(d)) * DEG, M.nw[k]!) / rho;
+}
+
+/** du/|δ| of node k at motion m. */
+function ratioOf(ws: Workspace, k: number, m: Float64Array): number {
+  return nodeRatio(ws.mesh, k, m[0]!, m[1]!, m[2]! / ws.mesh.lc);
 }
 
 /** Up to `most` nodes whose du/|δ| at m is within 10 % of the smallest, smallest first. */
