@@ -5,10 +5,10 @@
  *   npm run codes          rewrite the README table
  *   npm run codes:check    write nothing; exit 1 when the README table differs
  */
-import { readFileSync, realpathSync, writeFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { CODES, type Code } from '../engine/codes.js';
+import { isMain } from './is-main.js';
 
 export const README_PATH = fileURLToPath(new URL('../../README.md', import.meta.url));
 export const START_MARKER = '<!-- codes:start -->';
@@ -70,15 +70,6 @@ function main(argv: readonly string[]): number {
   return 0;
 }
 
-function isMain(metaUrl: string): boolean {
-  const arg = process.argv[1];
-  if (!arg) return false;
-  try {
-    return realpathSync(fileURLToPath(metaUrl)) === realpathSync(resolve(arg));
-  } catch {
-    return false;
-  }
-}
 
 if (isMain(import.meta.url)) {
   try {

@@ -8,10 +8,10 @@
  * The document is built from the route schemas only (no clock, no host name, no file path), so
  * the same source gives the same bytes on every machine.
  */
-import { mkdirSync, readFileSync, realpathSync, writeFileSync } from 'node:fs';
-import { resolve } from 'node:path';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { buildApp } from '../app.js';
+import { isMain } from './is-main.js';
 
 /** The folder the committed contract lives in (two levels up from src/bin or dist/bin). */
 export const OPENAPI_DIR = fileURLToPath(new URL('../../openapi/', import.meta.url));
@@ -95,16 +95,6 @@ async function main(argv: readonly string[]): Promise<number> {
   return 0;
 }
 
-/** True when this file is the program being run (not imported by a test). */
-export function isMain(metaUrl: string): boolean {
-  const arg = process.argv[1];
-  if (!arg) return false;
-  try {
-    return realpathSync(fileURLToPath(metaUrl)) === realpathSync(resolve(arg));
-  } catch {
-    return false;
-  }
-}
 
 if (isMain(import.meta.url)) {
   main(process.argv.slice(2)).then(

@@ -15,8 +15,8 @@
  * so the committed file changes only when this script does.
  */
 import { writeFileSync } from 'node:fs';
-import { pathToFileURL } from 'node:url';
 import ExcelJS from 'exceljs';
+import { isMain } from './is-main.js';
 
 export const DEFAULT_BASE_URL = 'http://127.0.0.1:3000';
 export const WORKBOOK_PATH = 'openapi/examples/workshop-welds.xlsx';
@@ -200,4 +200,4 @@ async function main(): Promise<void> {
   process.stdout.write(`wrote ${out}\n`);
 }
 
-if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void main();
+if (isMain(import.meta.url)) void main();

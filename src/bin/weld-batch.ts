@@ -18,7 +18,7 @@ import { createReadStream, createWriteStream, readFileSync, writeFileSync } from
 import http from 'node:http';
 import https from 'node:https';
 import { Readable } from 'node:stream';
-import { pathToFileURL } from 'node:url';
+import { isMain } from './is-main.js';
 
 export interface Options {
   input: string;
@@ -218,4 +218,4 @@ async function main(): Promise<void> {
   process.exitCode = s.fail + s.error > 0 || s.stopped ? 1 : 0;
 }
 
-if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) void main();
+if (isMain(import.meta.url)) void main();
