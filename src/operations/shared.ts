@@ -8,6 +8,7 @@ import type { EngineResult } from '../engine/result.js';
 import type { Method } from '../engine/provisions/resistance.js';
 import { parseFraction, type UnitSystemId } from '../engine/units.js';
 import { ENGINE_VERSION } from '../version.js';
+import { MAX_MAGNITUDE, MIN_LENGTH } from '../schemas/common.js';
 
 /** A request field that passed the schema but is still wrong (400, names the field). */
 export class RequestFieldError extends Error {
@@ -22,9 +23,11 @@ export class RequestFieldError extends Error {
 /** A length given as a number, or in imperial as a fraction string. */
 export function length(value: number | string, units: UnitSystemId, pointer: string): number {
   if (typeof value === 'number') return value;
-  if (units === 'metric') throw new RequestFieldError(pointer, 'Fraction strings are imperial only; give millimetres as a number.');
   const n = parseFraction(value);
-  if (n === undefined || !(n > 0) || !Number.isFinite(n)) throw new RequestFieldError(pointer, `"${value}" is not a positive length such as 0.3125, "5/16" or "1-1/4".`);
+  if (units === 'metric' && value.includes('/')) throw new RequestFieldError(pointer, `"${value}": fractions are imperial only; give millimetres as a number.`);
+  if (n === undefined || !Number.isFinite(n) || n < MIN_LENGTH || n > MAX_MAGNITUDE) {
+    throw new RequestFieldError(pointer, units === 'metric' ? `"${value}" is not a positive length in millimetres (from ${MIN_LENGTH} to ${MAX_MAGNITUDE}).` : `"${value}" is not a positive length such as 0.3125, "5/16" or "1-1/4" (from ${MIN_LENGTH} to ${MAX_MAGNITUDE} in).`);
+  }
   return n;
 }
 

@@ -432,3 +432,17 @@ describe('catalogue, health and contract routes', () => {
     expect(yaml.body).toMatch(/^openapi: 3\.1\.0/);
   });
 });
+
+describe('lengths given as text', () => {
+  const metric = (size: unknown) => ({ method: 'LRFD', units: 'metric', electrode: 'E49', welds: [{ size, length: 100 }], parts: [{ thickness: 12, steel: 'S355' }] });
+  it('a plain number written as text is a length in metric too', async () => {
+    const text = await post(metric('8'));
+    const num = await post(metric(8));
+    expect(text.statusCode).toBe(200);
+    expect(text.json().governing).toEqual(num.json().governing);
+  });
+  it('text below the smallest length is refused at the field like a number would be', async () => {
+    expectField(await post(metric('0.0001')), '/welds/0/size');
+    expectField(await post(edit(fillet(), (b) => (b.welds[0].size = '0.0000001'))), '/welds/0/size');
+  });
+});
