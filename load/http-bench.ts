@@ -25,6 +25,9 @@ const ROUNDS = short ? 1 : argNum('--rounds', 3);
 const DURATION = short ? 1 : argNum('--duration', 5);
 const CONNECTIONS = argNum('--connections', 32);
 const NDJSON_LINES = short ? 5_000 : 100_000;
+/** `--only fillet` runs just the scenarios whose name contains the text (for profiling). */
+const onlyIdx = args.indexOf('--only');
+const ONLY = onlyIdx >= 0 ? String(args[onlyIdx + 1]).toLowerCase() : undefined;
 /** The compact result a pipeline usually needs: the verdict and what governs. */
 const COMPACT = 'status,utilization,governing.code';
 const BATCH_ITEMS = 1_000;
@@ -227,6 +230,8 @@ async function main(): Promise<void> {
     scenarios.push({ name: `JSON batch ${BATCH_ITEMS} mixed`, method: 'POST', path: '/v1/batch', contentType: 'application/json', body: batchBody(mixKinds, BATCH_ITEMS), items: BATCH_ITEMS });
   }
 
+  if (ONLY !== undefined) scenarios.splice(0, scenarios.length, ...scenarios.filter((s) => s.name.toLowerCase().includes(ONLY)));
+  const runNdjson = ONLY === undefined || 'ndjson'.includes(ONLY) || ONLY.includes('ndjson');
   const results = new Map<string, { base: Run[]; svc: Run[] }>();
   const rssByRound: number[] = [];
   const ndjsonRuns: Array<Run & { peakRssGrowth: number }> = [];
@@ -239,8 +244,10 @@ async function main(): Promise<void> {
       entry.svc.push(await cannon(service, s));
       results.set(s.name, entry);
     }
-    ndjsonRuns.push(await ndjson(service, '/v1/batch'));
-    ndjsonCompact.push(await ndjson(service, `/v1/batch?fields=${COMPACT}`));
+    if (runNdjson) {
+      ndjsonRuns.push(await ndjson(service, '/v1/batch'));
+      ndjsonCompact.push(await ndjson(service, `/v1/batch?fields=${COMPACT}`));
+    }
     rssByRound.push(rssMiB(service.proc.pid!));
     process.stderr.write(`round ${round}/${ROUNDS} done\n`);
   }
@@ -270,16 +277,18 @@ async function main(): Promise<void> {
       verdicts.push([`JSON batch, compact answers (fields=${COMPACT}), >= 400,000 fillet items/s`, ips >= 400_000, fmt(ips)]);
     }
   }
-  const ndLines = median(ndjsonRuns.map((r) => r.itemsPerSec));
-  rows.push([`NDJSON ${NDJSON_LINES} lines`, '-', '-', '-', fmt(median(ndjsonRuns.map((r) => r.cpuPerReq / NDJSON_LINES))) + '/line', '-', '-',
-    `${fmt(median(ndjsonRuns.map((r) => r.p50)))} (first)`, `${fmt(median(ndjsonRuns.map((r) => r.p99)))} (all)`, String(ndjsonRuns.reduce((a, r) => a + r.errors, 0)), fmt(ndLines)]);
-  const ndCompact = median(ndjsonCompact.map((r) => r.itemsPerSec));
-  rows.push([`NDJSON ${NDJSON_LINES} lines, compact`, '-', '-', '-', fmt(median(ndjsonCompact.map((r) => r.cpuPerReq / NDJSON_LINES))) + '/line', '-', '-',
-    `${fmt(median(ndjsonCompact.map((r) => r.p50)))} (first)`, `${fmt(median(ndjsonCompact.map((r) => r.p99)))} (all)`, String(ndjsonCompact.reduce((a, r) => a + r.errors, 0)), fmt(ndCompact)]);
-  const growth = Math.max(...ndjsonRuns.map((r) => r.peakRssGrowth), ...ndjsonCompact.map((r) => r.peakRssGrowth));
-  verdicts.push(['NDJSON, full answers, >= 300,000 lines/s', ndLines >= 300_000, fmt(ndLines)]);
-  verdicts.push([`NDJSON, compact answers, >= 300,000 lines/s`, ndCompact >= 300_000, fmt(ndCompact)]);
-  verdicts.push(['NDJSON memory flat (peak RSS growth < 64 MiB)', growth < 64, `${fmt(growth)} MiB`]);
+  if (runNdjson) {
+    const ndLines = median(ndjsonRuns.map((r) => r.itemsPerSec));
+    rows.push([`NDJSON ${NDJSON_LINES} lines`, '-', '-', '-', fmt(median(ndjsonRuns.map((r) => r.cpuPerReq / NDJSON_LINES))) + '/line', '-', '-',
+      `${fmt(median(ndjsonRuns.map((r) => r.p50)))} (first)`, `${fmt(median(ndjsonRuns.map((r) => r.p99)))} (all)`, String(ndjsonRuns.reduce((a, r) => a + r.errors, 0)), fmt(ndLines)]);
+    const ndCompact = median(ndjsonCompact.map((r) => r.itemsPerSec));
+    rows.push([`NDJSON ${NDJSON_LINES} lines, compact`, '-', '-', '-', fmt(median(ndjsonCompact.map((r) => r.cpuPerReq / NDJSON_LINES))) + '/line', '-', '-',
+      `${fmt(median(ndjsonCompact.map((r) => r.p50)))} (first)`, `${fmt(median(ndjsonCompact.map((r) => r.p99)))} (all)`, String(ndjsonCompact.reduce((a, r) => a + r.errors, 0)), fmt(ndCompact)]);
+    const growth = Math.max(...ndjsonRuns.map((r) => r.peakRssGrowth), ...ndjsonCompact.map((r) => r.peakRssGrowth));
+    verdicts.push(['NDJSON, full answers, >= 300,000 lines/s', ndLines >= 300_000, fmt(ndLines)]);
+    verdicts.push([`NDJSON, compact answers, >= 300,000 lines/s`, ndCompact >= 300_000, fmt(ndCompact)]);
+    verdicts.push(['NDJSON memory flat (peak RSS growth < 64 MiB)', growth < 64, `${fmt(growth)} MiB`]);
+  }
   verdicts.push(['start-up to ready < 1 s', startupMs < 1000, `${fmt(startupMs)} ms`]);
   const rssEnd = rssByRound[rssByRound.length - 1]!;
   verdicts.push(['resident memory < 150 MB after the run', rssEnd < 150, `${fmt(rssEnd)} MiB`]);

@@ -8,13 +8,14 @@
  * API-key check; then body parsing (size and depth limits) and the route itself.
  */
 import type { Server as HttpServer } from 'node:http';
-import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions, type RouteOptions } from 'fastify';
+import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions } from 'fastify';
 import { OneLineLog } from './plugins/request-log.js';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import { apiKeyHashes, corsOrigins, resolveConfig, trustProxy, type Config } from './config.js';
 import auth, { KeyRing, REDACT_PATHS } from './plugins/auth.js';
 import availability, { LoadMonitor } from './plugins/availability.js';
 import caching from './plugins/caching.js';
+import deadlines from './plugins/deadlines.js';
 import { clientErrorHandler } from './plugins/client-errors.js';
 import cors from './plugins/cors.js';
 import jsonBody from './plugins/json-body.js';
@@ -70,7 +71,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
     genReqId: requestId,
     trustProxy: fastifyTrustProxy(trustProxy(config)),
     // Whole request received within the longest any route allows; each route that takes a body
-    // has its own bound as a handler timeout (which starts before the body is read; see onRoute).
+    // has its own, shorter deadline (plugins/deadlines.ts).
     requestTimeout: config.BATCH_TIMEOUT_MS,
     // Requests that arrive on an open connection while the app closes are still answered.
     return503OnClosing: false,
@@ -95,16 +96,8 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(rateLimits, { max: config.RATE_LIMIT_MAX, windowMs: config.RATE_LIMIT_WINDOW_MS, keys });
   await app.register(auth, { keys, metricsRequireKey: config.METRICS_REQUIRE_KEY });
   await app.register(caching, { private: keys.enabled });
-  // A handler timeout guards routes whose body may stall (a slow upload). Requests without a body
-  // need none: their headers are bounded by headersTimeout and their handlers do bounded work.
-  // (The framework's timeout costs an AbortController and an abort per request, about a tenth of
-  // a small request's CPU, so it is set only where it protects something.)
-  app.addHook('onRoute', (route: RouteOptions) => {
-    const methods = Array.isArray(route.method) ? route.method : [route.method];
-    if (route.url === '/v1/batch') route.handlerTimeout = config.BATCH_TIMEOUT_MS;
-    else if (methods.some((m) => m === 'POST' || m === 'PUT' || m === 'PATCH')) route.handlerTimeout = config.REQUEST_TIMEOUT_MS;
-  });
-
+  // Routes with a body get a deadline (a stalled upload is a 408), watched by one sweep per app.
+  await app.register(deadlines, { requestMs: config.REQUEST_TIMEOUT_MS, batchMs: config.BATCH_TIMEOUT_MS });
   await app.register(openapi, { docs: config.DOCS });
   await app.register(healthRoutes, { readiness, overloaded: () => monitor.overloaded });
   if (config.METRICS) {
