@@ -9,7 +9,7 @@
  */
 import type { Server as HttpServer } from 'node:http';
 import Fastify, { type FastifyBaseLogger, type FastifyInstance, type FastifyServerOptions } from 'fastify';
-import { OneLineLog } from './plugins/request-log.js';
+import { lazyChildLogger, OneLineLog } from './plugins/request-log.js';
 import type { TypeBoxTypeProvider } from '@fastify/type-provider-typebox';
 import { apiKeyHashes, corsOrigins, resolveConfig, trustProxy, type Config } from './config.js';
 import auth, { KeyRing, REDACT_PATHS } from './plugins/auth.js';
@@ -67,6 +67,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const app = Fastify({
     ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: withRedaction(options.logger) }),
     logController: new OneLineLog(),
+    childLoggerFactory: lazyChildLogger,
     bodyLimit: config.BODY_LIMIT,
     genReqId: requestId,
     trustProxy: fastifyTrustProxy(trustProxy(config)),
