@@ -5,7 +5,7 @@
  */
 import { partChecks, type Loading } from './base-metal.js';
 import { EngineError } from './errors.js';
-import { electrodeMatch, resolveElectrode, resolveSteel, type ElectrodeSpec, type SteelSpec } from './materials.js';
+import { electrodeMatchRange, partSteelPointer, resolveElectrode, resolveSteel, type ElectrodeSpec, type SteelSpec } from './materials.js';
 import { DETAILING, lMin, lMinIntermittent, lapMin, tMatch, wMaxEdge, wMin } from './provisions/detailing.js';
 import { Fnw, RnMixedGroup, RnWeld, endLoadedLength, kds, shortWeldEffectiveSize, te } from './provisions/fillet.js';
 import { FACTORS, type Method } from './provisions/resistance.js';
@@ -91,7 +91,15 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
   const det = DETAILING[sys];
   const electrode = resolveElectrode(req.electrode, sys, '/electrode');
   const FEXX = electrode.fexx;
-  const parts = req.parts.map((p, i) => ({ thickness: p.thickness, edge: p.edge, faces: p.faces, loading: p.loading, steel: resolveSteel(p.steel, p.thickness, sys, `/parts/${i}/steel`) }));
+  const parts = req.parts.map((p, i) => ({ thickness: p.thickness, edge: p.edge, faces: p.faces, loading: p.loading, steel: resolveSteel(p.steel, p.thickness, sys, partSteelPointer(i)) }));
+  let fuMin = Infinity;
+  let fuMax = -Infinity;
+  let tThin = Infinity;
+  for (const p of parts) {
+    fuMin = Math.min(fuMin, p.steel.fu);
+    fuMax = Math.max(fuMax, p.steel.fu);
+    tThin = Math.min(tThin, p.thickness);
+  }
   const demand = req.demand ?? 0;
   const warnings: Warning[] = [];
   const limits: Limit[] = [];
@@ -155,16 +163,19 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
   const checks: Check[] = [strengthCheck('FILLET_WELD_METAL', equation, req.method, weldNominal, FACTORS.weldShear, demand)];
 
   // ---- base metal of each part ----
-  const totalGross = lines.reduce((s, l) => s + l.grossLength, 0);
-  const maxThroat = Math.max(...lines.map((l) => l.throat));
+  let totalGross = 0;
+  let maxThroat = -Infinity;
+  for (const l of lines) {
+    totalGross += l.grossLength;
+    maxThroat = Math.max(maxThroat, l.throat);
+  }
   const partValues = parts.map((p, i) => {
     const r = partChecks(req.method, units, p, totalGross, demand, i);
-    checks.push(...r.checks);
+    for (const c of r.checks) checks.push(c);
     return { thickness: p.thickness, fy: p.steel.fy, fu: p.steel.fu, planeLength: r.values.planeLength, area: r.values.area, tMatch: tMatch(FEXX, maxThroat, p.steel.fu, p.faces) };
   });
 
   // ---- detailing limits ----
-  const tThin = Math.min(...parts.map((p) => p.thickness));
   for (const l of lines) {
     const w = l.input;
     limits.push(limit('FILLET_MIN_SIZE', 'min', wMin(tThin, sys), l.size, { weld: l.index }));
@@ -194,9 +205,9 @@ export function checkFillet(req: FilletRequest): EngineResult<FilletValues> {
   if (req.lap !== null) limits.push(limit('FILLET_LAP_LENGTH', 'min', lapMin(tThin, sys), req.lap));
 
   // ---- advice ----
-  const match = electrodeMatch(FEXX, parts.map((p) => p.steel.fu), sys);
-  if (match === 'under') warnings.push(warn('ELECTRODE_UNDERMATCHED', `FEXX = ${round(FEXX)} ${units.stress} is below matching filler metal for Fu = ${round(Math.max(...parts.map((p) => p.steel.fu)))} ${units.stress}.`));
-  if (match === 'over') warnings.push(warn('ELECTRODE_OVERMATCHED', `FEXX = ${round(FEXX)} ${units.stress} is well above Fu = ${round(Math.min(...parts.map((p) => p.steel.fu)))} ${units.stress} of the weakest part.`));
+  const match = electrodeMatchRange(FEXX, fuMin, fuMax, sys);
+  if (match === 'under') warnings.push(warn('ELECTRODE_UNDERMATCHED', `FEXX = ${round(FEXX)} ${units.stress} is below matching filler metal for Fu = ${round(fuMax)} ${units.stress}.`));
+  if (match === 'over') warnings.push(warn('ELECTRODE_OVERMATCHED', `FEXX = ${round(FEXX)} ${units.stress} is well above Fu = ${round(fuMin)} ${units.stress} of the weakest part.`));
   if (req.demand === null) warnings.push(warn('NO_DEMAND_GIVEN', 'No load.force given: the answer reports available strengths only.'));
 
   const values: FilletValues = {

@@ -146,11 +146,21 @@ export const MATCHING = Object.freeze({
 export type Match = 'matching' | 'under' | 'over';
 
 export function electrodeMatch(fexx: number, fuParts: readonly number[], system: UnitSystemId): Match {
-  const fuMax = Math.max(...fuParts);
-  const fuMin = Math.min(...fuParts);
+  return electrodeMatchRange(fexx, Math.min(...fuParts), Math.max(...fuParts), system);
+}
+
+/** electrodeMatch given the weakest and strongest parts' Fu. */
+export function electrodeMatchRange(fexx: number, fuMin: number, fuMax: number, system: UnitSystemId): Match {
   if (fexx < MATCHING.matchRatio * fuMax) return 'under';
   if (fexx > fuMin + MATCHING.overmatchMargin[system]) return 'over';
   return 'matching';
+}
+
+const PART_STEEL_POINTERS = Array.from({ length: 16 }, (_, i) => `/parts/${i}/steel`);
+
+/** `/parts/<i>/steel`, the pointer an error about a part's steel names (made once, not per call). */
+export function partSteelPointer(i: number): string {
+  return PART_STEEL_POINTERS[i] ?? `/parts/${i}/steel`;
 }
 
 /** The catalogue as served by GET /v1/catalog/*, in the requested system. */

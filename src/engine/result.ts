@@ -88,21 +88,18 @@ export function strengthCheck(
   const available = availableStrength(method, nominal, factors);
   const ratio = ratioOf(demand, available);
   const info = CODES[code];
-  const check: Check = {
-    code,
-    title: info.title,
-    clause: info.clause,
-    equation,
-    nominal,
-    available,
-    demand,
-    ratio,
-    pass: ratio <= 1 + RATIO_TOLERANCE,
-  };
-  if (part !== undefined) check.part = part;
-  if (method === 'LRFD') check.phi = factors.phi;
-  else check.omega = factors.omega;
-  return check;
+  const pass = ratio <= 1 + RATIO_TOLERANCE;
+  // One object literal per shape (with or without a part; phi or omega) rather than properties
+  // added afterwards: every check of a shape shares one hidden class, which keeps the code that
+  // reads checks (governing, serialization) monomorphic. Key order is the same in all four.
+  if (method === 'LRFD') {
+    return part === undefined
+      ? { code, title: info.title, clause: info.clause, equation, nominal, available, demand, ratio, pass, phi: factors.phi }
+      : { code, title: info.title, clause: info.clause, equation, nominal, available, demand, ratio, pass, part, phi: factors.phi };
+  }
+  return part === undefined
+    ? { code, title: info.title, clause: info.clause, equation, nominal, available, demand, ratio, pass, omega: factors.omega }
+    : { code, title: info.title, clause: info.clause, equation, nominal, available, demand, ratio, pass, part, omega: factors.omega };
 }
 
 export function limit(
@@ -127,13 +124,23 @@ export function limit(
  * strength; ties keep the first in check order (weld metal before base metal).
  */
 export function summarise<V>(checks: Check[], limits: Limit[], warnings: Warning[], values: V): EngineResult<V> {
-  // Limit states the Specification exempts for the load case take no part in governing.
-  const candidates = checks.filter((c) => c.applicable !== false);
-  const pool = candidates.length > 0 ? candidates : checks;
-  let gov = pool[0];
+  // Limit states the Specification exempts for the load case take no part in governing (unless
+  // every check is exempt). Plain loops: this runs once per answer and per batch item.
+  let anyApplicable = false;
+  for (let i = 0; i < checks.length; i++) if (checks[i]!.applicable !== false) anyApplicable = true;
+  const inPool = (c: Check): boolean => !anyApplicable || c.applicable !== false;
+  let gov: Check | undefined;
+  let anyDemand = false;
+  for (let i = 0; i < checks.length; i++) {
+    const c = checks[i]!;
+    if (!inPool(c)) continue;
+    gov ??= c;
+    if (c.demand > 0) anyDemand = true;
+  }
   if (!gov) throw new Error('summarise: no checks');
-  const anyDemand = pool.some((c) => c.demand > 0);
-  for (const c of pool) {
+  for (let i = 0; i < checks.length; i++) {
+    const c = checks[i]!;
+    if (!inPool(c)) continue;
     if (anyDemand ? c.ratio > gov.ratio : c.available < gov.available) gov = c;
   }
   const governing: Governing = { code: gov.code, available: gov.available, demand: gov.demand, ratio: gov.ratio };
@@ -143,7 +150,9 @@ export function summarise<V>(checks: Check[], limits: Limit[], warnings: Warning
       throw new EngineError('GEOMETRY_MEANINGLESS', `${c.code} has no strength for these dimensions (available ${c.available}); check the sizes, lengths and thicknesses given.`);
     }
   }
-  const pass = checks.every((c) => c.pass) && limits.every((l) => l.pass);
+  let pass = true;
+  for (let i = 0; i < checks.length; i++) if (!checks[i]!.pass) pass = false;
+  for (let i = 0; i < limits.length; i++) if (!limits[i]!.pass) pass = false;
   return { status: pass ? 'pass' : 'fail', utilization: gov.ratio, governing, checks, limits, warnings, values };
 }
 
