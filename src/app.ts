@@ -16,6 +16,7 @@ import auth, { KeyRing, REDACT_PATHS } from './plugins/auth.js';
 import availability, { LoadMonitor } from './plugins/availability.js';
 import caching from './plugins/caching.js';
 import deadlines from './plugins/deadlines.js';
+import { warmUp } from './plugins/lazy-compile.js';
 import { clientErrorHandler } from './plugins/client-errors.js';
 import cors from './plugins/cors.js';
 import jsonBody from './plugins/json-body.js';
@@ -112,6 +113,12 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>
     reply.code(204).header('allow', 'GET, HEAD, POST, OPTIONS').send(),
   );
+  // Validators and serializers compile on first use; once listening, the rest compile in the
+  // background, a schema per turn of the event loop.
+  app.addHook('onListen', (done) => {
+    void warmUp();
+    done();
+  });
   await app.ready();
   return app;
 }

@@ -7,17 +7,21 @@ import { Ajv, type ErrorObject, type ValidateFunction } from 'ajv';
 import type { FastifySchemaCompiler } from 'fastify';
 import type { TSchema } from 'typebox';
 import { FRACTION_PATTERN } from '../schemas/common.js';
+import { lazyValidator } from './lazy-compile.js';
 
 // verbose: errors carry the schema they failed against, so that a failed union can say what
 // each of its branches accepts (see fieldErrors).
-const common = { allErrors: false, removeAdditional: false, useDefaults: false, strict: false, validateFormats: false, verbose: true } as const;
+// validateSchema: false: the schemas are ours (the contract tests validate them); checking each
+// against the meta-schema only slowed the first request of every kind.
+const common = { allErrors: false, removeAdditional: false, useDefaults: false, strict: false, validateFormats: false, verbose: true, validateSchema: false } as const;
 
 export const bodyAjv = new Ajv({ ...common, coerceTypes: false });
 const queryAjv = new Ajv({ ...common, coerceTypes: true });
 
+/** Route validators, compiled on first use (plugins/lazy-compile.ts). */
 export const validatorCompiler: FastifySchemaCompiler<TSchema> = ({ schema, httpPart }) => {
   const ajv = httpPart === 'body' ? bodyAjv : queryAjv;
-  return ajv.compile(schema) as ValidateFunction;
+  return lazyValidator(() => ajv.compile(schema));
 };
 
 /** Validation failure of a request assembled outside the framework's own body path (GET forms, batch items). */
@@ -34,11 +38,11 @@ export class RequestValidationError extends Error {
 
 const compiled = new WeakMap<object, ValidateFunction>();
 
-/** The compiled body validator of a schema, compiled once. */
+/** The body validator of a schema: one per schema, compiled on first use. */
 export function bodyValidator(schema: TSchema): ValidateFunction {
   let v = compiled.get(schema);
   if (!v) {
-    v = bodyAjv.compile(schema);
+    v = lazyValidator(() => bodyAjv.compile(schema));
     compiled.set(schema, v);
   }
   return v;
