@@ -50,12 +50,14 @@ export function pickField(answer: object, field: string): string {
   return scalar(pickValue(answer, field));
 }
 
-/** The raw value of a dotted field (see pickField). */
-export function pickValue(answer: object, field: string): null | boolean | number | string {
+const DIGITS = /^\d+$/;
+
+/** The raw value of a dotted field (see pickField); `segments` is the field already split at dots. */
+export function pickValue(answer: object, field: string, segments: readonly string[] = field.split('.')): null | boolean | number | string {
   let node: Json = answer as Json;
-  for (const seg of field.split('.')) {
+  for (const seg of segments) {
     if (Array.isArray(node)) {
-      node = /^\d+$/.test(seg) ? node[Number(seg)] : node.find((x) => x !== null && typeof x === 'object' && !Array.isArray(x) && x.code === seg);
+      node = DIGITS.test(seg) ? node[Number(seg)] : node.find((x) => x !== null && typeof x === 'object' && !Array.isArray(x) && x.code === seg);
     } else if (node !== null && typeof node === 'object' && Object.prototype.hasOwnProperty.call(node, seg)) {
       node = node[seg];
     } else {

@@ -36,6 +36,26 @@ function processMetrics(): Registry {
   return processRegistry;
 }
 
+/**
+ * Label children of a three-label metric, made once per combination and found again by three
+ * Map lookups: asking the metric with a label object each time hashed and checked the labels
+ * on every answer and every batch item.
+ */
+class LabelChildren<T> {
+  private readonly root = new Map<string, Map<string, Map<string | number, T>>>();
+  constructor(private readonly make: (a: string, b: string, c: string) => T) {}
+
+  get(a: string, b: string, c: string | number): T {
+    let m1 = this.root.get(a);
+    if (m1 === undefined) this.root.set(a, (m1 = new Map()));
+    let m2 = m1.get(b);
+    if (m2 === undefined) m1.set(b, (m2 = new Map()));
+    let child = m2.get(c);
+    if (child === undefined) m2.set(c, (child = this.make(a, b, String(c))));
+    return child;
+  }
+}
+
 export class ServiceMetrics {
   readonly registry = new Registry();
   readonly requests = new Counter({ name: 'throatline_http_requests_total', help: 'HTTP answers by method, route pattern and status.', labelNames: ['method', 'route', 'status'] as const, registers: [this.registry] });
@@ -56,14 +76,27 @@ export class ServiceMetrics {
   readonly overloaded = new Gauge({ name: 'throatline_overloaded', help: '1 while new work is shed because the event loop lags.', registers: [this.registry] });
   readonly ready = new Gauge({ name: 'throatline_ready', help: '1 while /readyz answers 200.', registers: [this.registry] });
 
+  private readonly calculationChildren = new LabelChildren((kind, status, governing) => this.calculations.labels({ kind, status, governing }));
+  private readonly answerChildren = new LabelChildren((method, route, status) => ({
+    requests: this.requests.labels({ method, route, status }),
+    duration: this.duration.labels({ method, route, status }),
+  }));
+
   /** Counts one answered (or refused) calculation. */
   calculation(kind: string, answer: Pick<Envelope<unknown>, 'status' | 'governing'>): void {
     const governing = (answer.governing as { code?: string } | null | undefined)?.code ?? 'none';
-    this.calculations.inc({ kind, status: answer.status, governing });
+    this.calculationChildren.get(kind, answer.status, governing).inc();
   }
 
   refused(kind: string, code: string): void {
-    this.calculations.inc({ kind, status: 'refused', governing: code });
+    this.calculationChildren.get(kind, 'refused', code).inc();
+  }
+
+  /** Counts one HTTP answer and its latency. */
+  answered(method: string, route: string, status: number, seconds: number): void {
+    const c = this.answerChildren.get(method, route, status);
+    c.requests.inc();
+    c.duration.observe(seconds);
   }
 
   /** The exposition text: process metrics, then this app's. */
@@ -125,10 +158,9 @@ export default fp(
   async function metricsPlugin(app: FastifyInstance, opts: { metrics: ServiceMetrics }) {
     const { metrics } = opts;
     processMetrics();
-    app.addHook('onResponse', async (request, reply) => {
-      const labels = { method: request.method, route: request.routeOptions.url ?? 'unmatched', status: String(reply.statusCode) };
-      metrics.requests.inc(labels);
-      metrics.duration.observe(labels, reply.elapsedTime / 1000);
+    app.addHook('onResponse', (request, reply, done) => {
+      metrics.answered(request.method, request.routeOptions.url ?? 'unmatched', reply.statusCode, reply.elapsedTime / 1000);
+      done();
     });
   },
   { name: 'metrics' },

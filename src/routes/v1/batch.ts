@@ -45,16 +45,26 @@ function project(answer: object, id: string | undefined, kind: string, fields: r
   const out: Record<string, unknown> = {};
   if (id !== undefined) out.id = id;
   out.kind = kind;
-  for (const f of fields) {
+  const segments = splitFields(fields);
+  for (let i = 0; i < fields.length; i++) {
+    const f = fields[i]!;
     let v: unknown = null;
     try {
-      v = pickValue(answer, f);
+      v = pickValue(answer, f, segments[i]);
     } catch {
       v = null; // a field this kind of answer does not have
     }
     out[f] = v;
   }
   return JSON.stringify(out);
+}
+
+/** The fields of a request split at dots, once per request (a batch asks for the same ones for every item). */
+const splitCache = new WeakMap<readonly string[], string[][]>();
+function splitFields(fields: readonly string[]): string[][] {
+  let s = splitCache.get(fields);
+  if (s === undefined) splitCache.set(fields, (s = fields.map((f) => f.split('.'))));
+  return s;
 }
 
 export function batchRunner(operations: readonly Operation[], defaultIds: 'any' | 'ifc' = 'any'): Runner {
@@ -185,17 +195,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         if (body.length > config.BATCH_MAX_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));
         }
-        const counts = { items: body.length, pass: 0, fail: 0, error: 0 };
-        const parts = new Array<string>(body.length);
-        for (let i = 0; i < body.length; i++) {
-          // Give the event loop a turn between slices, so a large batch does not hold up other
-          // requests (or look like an overloaded process to the load-shedding check).
-          if (i > 0 && i % YIELD_EVERY === 0) await yieldToLoop();
-          const r = runner.run(body[i], i, fields);
-          parts[i] = r.json;
-          counts[r.outcome]++;
-        }
-        return reply.type('application/json; charset=utf-8').send(`{"results":[${parts.join(',')}],"summary":${JSON.stringify(counts)}}`);
+        return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields)));
       }
       if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {
         const wantSummary = q.summary === true || q.summary === 'true';
@@ -212,6 +212,32 @@ const NEWLINE = 0x0a;
 /** Items answered between two turns of the event loop in a JSON batch (about 1-2 ms of work). */
 const YIELD_EVERY = 256;
 const yieldToLoop = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
+
+/**
+ * The JSON answer to an array of items, streamed a slice of results at a time: `{"results":[`,
+ * the results joined per slice, then `],"summary":{...}}`. Each slice's text is joined into one
+ * flat string and sent on, so the items' answers die young instead of all being held (as trees
+ * of string pieces) until the last item is done: holding them made garbage collection about a
+ * third of a 1,000-item batch's CPU and its resident memory grow by a hundred megabytes.
+ */
+async function* jsonResults(items: readonly unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<string> {
+  const counts = { items: items.length, pass: 0, fail: 0, error: 0 };
+  let slice: string[] = [];
+  yield '{"results":[';
+  for (let i = 0; i < items.length; i++) {
+    // Give the event loop a turn between slices, so a large batch does not hold up other
+    // requests (or look like an overloaded process to the load-shedding check).
+    if (i > 0 && i % YIELD_EVERY === 0) {
+      yield (i > YIELD_EVERY ? ',' : '') + slice.join(',');
+      slice = [];
+      await yieldToLoop();
+    }
+    const r = runner.run(items[i], i, fields);
+    slice.push(r.json);
+    counts[r.outcome]++;
+  }
+  yield `${items.length > YIELD_EVERY && slice.length > 0 ? ',' : ''}${slice.join(',')}],"summary":${JSON.stringify(counts)}}`;
+}
 
 /** Reads NDJSON items from the stream and yields result lines, a chunk's worth at a time. */
 async function* ndjsonResults(
