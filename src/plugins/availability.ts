@@ -125,15 +125,19 @@ export default fp(
     const { monitor, readiness } = opts;
     app.addHook('onListen', async () => monitor.start());
     app.addHook('onClose', async () => monitor.stop());
-    app.addHook('onRequest', async (request, reply) => {
-      if (!monitor.overloaded || NEVER_SHED.has(request.routeOptions.url ?? '')) return;
+    // Callback-style hooks (no promise per request): they run on every answer.
+    app.addHook('onRequest', (request, reply, done) => {
+      if (!monitor.overloaded || NEVER_SHED.has(request.routeOptions.url ?? '')) {
+        done();
+        return;
+      }
       reply.header('retry-after', String(monitor.retryAfterS));
-      return sendProblem(reply, problem(503, 'overloaded', 'Overloaded', `This replica is busier than it can answer promptly; retry in ${monitor.retryAfterS} s (another replica may take it sooner).`));
+      sendProblem(reply, problem(503, 'overloaded', 'Overloaded', `This replica is busier than it can answer promptly; retry in ${monitor.retryAfterS} s (another replica may take it sooner).`));
     });
-    app.addHook('onSend', async (_request, reply, payload) => {
+    app.addHook('onSend', (_request, reply, payload, done) => {
       // Shutting down, or a request that timed out mid-upload: this connection has served its turn.
       if (!readiness.ready || reply.statusCode === 408) reply.header('connection', 'close');
-      return payload;
+      done(null, payload);
     });
   },
   { name: 'availability' },

@@ -16,10 +16,10 @@ export const CACHE_CONTROL_PRIVATE = 'private, max-age=3600';
 export default fp(
   async function caching(app: FastifyInstance, opts: { private?: boolean }) {
     const cacheControl = opts.private ? CACHE_CONTROL_PRIVATE : CACHE_CONTROL;
-    app.addHook('onSend', async (request, reply, payload) => {
-      if (request.method !== 'GET' && request.method !== 'HEAD') return payload;
-      if (reply.statusCode !== 200 || !request.url.startsWith('/v1/')) return payload;
-      if (typeof payload !== 'string' && !Buffer.isBuffer(payload)) return payload;
+    app.addHook('onSend', (request, reply, payload, done) => {
+      if (request.method !== 'GET' && request.method !== 'HEAD') return done(null, payload);
+      if (reply.statusCode !== 200 || !request.url.startsWith('/v1/')) return done(null, payload);
+      if (typeof payload !== 'string' && !Buffer.isBuffer(payload)) return done(null, payload);
       const etag = `"${createHash('sha1').update(payload).digest('base64url')}"`;
       reply.header('etag', etag);
       reply.header('cache-control', cacheControl);
@@ -27,9 +27,9 @@ export default fp(
       const match = request.headers['if-none-match'];
       if (match !== undefined && match.split(',').some((t) => t.trim() === etag || t.trim() === '*')) {
         reply.code(304);
-        return '';
+        return done(null, '');
       }
-      return payload;
+      return done(null, payload);
     });
   },
   { name: 'caching' },

@@ -20,27 +20,30 @@ export default fp(
   async function cors(app: FastifyInstance, opts: { origins: readonly string[] }) {
     if (opts.origins.length === 0) return;
     const allowed = new Set(opts.origins);
-    app.addHook('onRequest', async (request, reply) => {
+    app.addHook('onRequest', (request, reply, done) => {
       const origin = request.headers.origin;
-      if (origin === undefined) return;
-      if (!allowed.has(origin)) return;
+      if (origin === undefined || !allowed.has(origin)) {
+        done();
+        return;
+      }
       reply.header('access-control-allow-origin', origin);
       reply.header('access-control-expose-headers', CORS_EXPOSED_HEADERS);
       if (request.method === 'OPTIONS' && request.headers['access-control-request-method'] !== undefined) {
-        return reply
+        reply
           .code(204)
           .header('access-control-allow-methods', CORS_ALLOWED_METHODS)
           .header('access-control-allow-headers', CORS_ALLOWED_HEADERS)
           .header('access-control-max-age', String(CORS_MAX_AGE))
           .header('content-length', '0')
           .send();
+        return;
       }
-      return;
+      done();
     });
     // The answer depends on Origin: say so to caches (appended, whatever else Vary holds).
-    app.addHook('onSend', async (_request, reply, payload) => {
+    app.addHook('onSend', (_request, reply, payload, done) => {
       reply.header('vary', appendHeaderToken(reply.getHeader('vary'), 'origin'));
-      return payload;
+      done(null, payload);
     });
   },
   { name: 'cors' },

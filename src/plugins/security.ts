@@ -39,17 +39,19 @@ export function appendHeaderToken(current: unknown, value: string): string {
 
 export default fp(
   async function security(app: FastifyInstance) {
-    app.addHook('onRequest', async (request, reply) => {
+    // Callback-style hooks (no promise per request): they run on every answer.
+    app.addHook('onRequest', (request, reply, done) => {
       reply.header(REQUEST_ID_HEADER, request.id);
+      done();
     });
-    app.addHook('onSend', async (request, reply, payload) => {
+    app.addHook('onSend', (request, reply, payload, done) => {
       reply.header('x-content-type-options', 'nosniff');
       reply.header('x-frame-options', 'DENY');
       reply.header('referrer-policy', 'no-referrer');
       if (!reply.hasHeader('content-security-policy')) reply.header('content-security-policy', CONTENT_SECURITY_POLICY);
       if (request.protocol === 'https') reply.header('strict-transport-security', HSTS);
       if (reply.statusCode >= 400 && !reply.hasHeader('cache-control')) reply.header('cache-control', 'no-store');
-      return payload;
+      done(null, payload);
     });
   },
   { name: 'security-headers' },
