@@ -12,7 +12,7 @@ import { StringEnum } from '../../schemas/common.js';
 import { bodyValidator, RequestValidationError } from '../../plugins/validation.js';
 import { RequestFieldError } from '../../operations/shared.js';
 import { PROBLEM_TYPE } from '../../plugins/problem.js';
-import { closePdfBrowsers, replySheet, SHEET_FORMATS, sheetContent } from '../../report/respond.js';
+import { closePdfBrowsers, prefersHtml, replySheet, SHEET_FORMATS, sheetContent } from '../../report/respond.js';
 
 const BASE_FORMATS = ['json', 'csv', 'value'] as const;
 
@@ -58,7 +58,13 @@ function rangeResponse(r: ReturnType<typeof successResponse>) {
   return { ...r, content: { ...r.content, 'application/xml': { schema: Type.String({ description: 'Range table (vary= with format=xml).' }) } } };
 }
 
-async function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined, options: CheckRouteOptions): Promise<FastifyReply | object> {
+function answer(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined, options: CheckRouteOptions): object | Promise<FastifyReply | object> {
+  // The usual case first, without a promise: JSON asked for, or nothing asked and no browser.
+  if (format === 'json' || (format === undefined && !prefersHtml(reply.request.headers.accept))) return result;
+  return answerAs(op, reply, result, body, format, field, options);
+}
+
+async function answerAs(op: Operation, reply: FastifyReply, result: Envelope<unknown>, body: CommonBody, format: string | undefined, field: string | undefined, options: CheckRouteOptions): Promise<FastifyReply | object> {
   const extra = format ? op.formats?.[format] : undefined;
   if (extra) return reply.type(extra.contentType).send(extra.render(result, body));
   // The calculation sheet: format=html or pdf, or a browser's Accept header.
