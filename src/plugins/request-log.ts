@@ -24,7 +24,7 @@ export class LazyChildLogger {
     private readonly options: ChildLoggerOptions,
   ) {}
 
-  private get log(): FastifyBaseLogger {
+  get log(): FastifyBaseLogger {
     return (this.real ??= this.parent.child(this.bindings, this.options));
   }
 
@@ -36,29 +36,30 @@ export class LazyChildLogger {
     this.log.level = level;
   }
 
-  fatal(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).fatal!(...args);
-  }
-  error(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).error!(...args);
-  }
-  warn(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).warn!(...args);
-  }
-  info(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).info!(...args);
-  }
-  debug(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).debug!(...args);
-  }
-  trace(...args: unknown[]): void {
-    (this.log as unknown as Record<string, (...a: unknown[]) => void>).trace!(...args);
-  }
+  declare fatal: LogMethod;
+  declare error: LogMethod;
+  declare warn: LogMethod;
+  declare info: LogMethod;
+  declare debug: LogMethod;
+  declare trace: LogMethod;
   silent(): void {}
 
   child(bindings: Bindings, options?: ChildLoggerOptions): FastifyBaseLogger {
     return this.log.child(bindings, options);
   }
+}
+
+type LogMethod = (...args: unknown[]) => void;
+
+// The level methods pass the call on to the real child logger, made on the first of them.
+for (const level of ['fatal', 'error', 'warn', 'info', 'debug', 'trace'] as const) {
+  Object.defineProperty(LazyChildLogger.prototype, level, {
+    value: function (this: { log: Record<string, LogMethod> }, ...args: unknown[]): void {
+      this.log[level]!(...args);
+    },
+    writable: true,
+    configurable: true,
+  });
 }
 
 /** For the framework's `childLoggerFactory` option. */
