@@ -11,6 +11,11 @@
  * The functions are small and allocation-free so that the solver can call them in its hot loop;
  * powers are written as exp(a·ln x), which V8 evaluates about twice as fast as Math.pow, to the
  * same precision (a few units in the last place).
+ *
+ * The ICR solver's element loop does not call deltaM and fOfP: it evaluates the same two
+ * expressions inline with the table-and-series powers of weld-group/powers.ts (about four times
+ * faster per element). A change to the law here must be made there too; the solver's tests
+ * against published Manual values and the capacity checks would show a mismatch.
  */
 
 /** Cap on the deformation at ultimate as a fraction of the weld size (du <= 0.17·w). */

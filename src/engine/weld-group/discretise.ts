@@ -120,3 +120,97 @@ export function discretise(
   segStart[segments.length] = e;
   return { n, nodes, x, y, tx, ty, w, strength, len, seg, nx, ny, ntx, nty, nw, nseg, segStart, cx, cy, lc: props.radius };
 }
+
+/**
+ * A coarser mesh of the same welds: each segment's elements merged in consecutive runs of about
+ * `factor` (at least MIN_ELEMENTS_PER_SEGMENT elements per segment are kept). A merged element
+ * sits at the centroid of its run, with the run's length and strength; the nodes are the runs'
+ * end points. The solver uses it to find a starting motion cheaply.
+ */
+export function coarsen(mesh: Mesh, factor: number): Mesh {
+  const segments = mesh.segStart.length - 1;
+  const counts: number[] = [];
+  for (let j = 0; j < segments; j++) {
+    const m = mesh.segStart[j + 1]! - mesh.segStart[j]!;
+    counts.push(Math.min(m, Math.max(MIN_ELEMENTS_PER_SEGMENT, Math.ceil(m / factor))));
+  }
+  const n = counts.reduce((a, b) => a + b, 0);
+  const nodes = n + segments;
+  // one buffer for all the arrays (the coarse mesh lives only as long as one solve)
+  const buffer = new ArrayBuffer(8 * (7 * n + 5 * nodes) + 4 * (n + nodes + segments + 1));
+  let at = 0;
+  const f64 = (length: number): Float64Array => {
+    const a = new Float64Array(buffer, at, length);
+    at += 8 * length;
+    return a;
+  };
+  const i32 = (length: number): Int32Array => {
+    const a = new Int32Array(buffer, at, length);
+    at += 4 * length;
+    return a;
+  };
+  const x = f64(n);
+  const y = f64(n);
+  const tx = f64(n);
+  const ty = f64(n);
+  const w = f64(n);
+  const strength = f64(n);
+  const len = f64(n);
+  const nx = f64(nodes);
+  const ny = f64(nodes);
+  const ntx = f64(nodes);
+  const nty = f64(nodes);
+  const nw = f64(nodes);
+  const seg = i32(n);
+  const nseg = i32(nodes);
+  const segStart = i32(segments + 1);
+  let e = 0;
+  let k = 0;
+  for (let j = 0; j < segments; j++) {
+    const first = mesh.segStart[j]!;
+    const m = mesh.segStart[j + 1]! - first;
+    const mc = counts[j]!;
+    const firstNode = first + j;
+    segStart[j] = e;
+    for (let g = 0; g < mc; g++, e++) {
+      // fine elements [a, b) of the segment make coarse element g
+      const a = Math.round((g * m) / mc);
+      const b = Math.round(((g + 1) * m) / mc);
+      let sl = 0;
+      let sx = 0;
+      let sy = 0;
+      let ss = 0;
+      for (let i = first + a; i < first + b; i++) {
+        sl += mesh.len[i]!;
+        sx += mesh.len[i]! * mesh.x[i]!;
+        sy += mesh.len[i]! * mesh.y[i]!;
+        ss += mesh.strength[i]!;
+      }
+      x[e] = sx / sl;
+      y[e] = sy / sl;
+      tx[e] = mesh.tx[first]!;
+      ty[e] = mesh.ty[first]!;
+      w[e] = mesh.w[first]!;
+      strength[e] = ss;
+      len[e] = sl;
+      seg[e] = j;
+      nx[k] = mesh.nx[firstNode + a]!;
+      ny[k] = mesh.ny[firstNode + a]!;
+      ntx[k] = mesh.ntx[firstNode + a]!;
+      nty[k] = mesh.nty[firstNode + a]!;
+      nw[k] = mesh.nw[firstNode + a]!;
+      nseg[k] = j;
+      k++;
+    }
+    // the segment's far end
+    nx[k] = mesh.nx[firstNode + m]!;
+    ny[k] = mesh.ny[firstNode + m]!;
+    ntx[k] = mesh.ntx[firstNode + m]!;
+    nty[k] = mesh.nty[firstNode + m]!;
+    nw[k] = mesh.nw[firstNode + m]!;
+    nseg[k] = j;
+    k++;
+  }
+  segStart[segments] = e;
+  return { n, nodes, x, y, tx, ty, w, strength, len, seg, nx, ny, ntx, nty, nw, nseg, segStart, cx: mesh.cx, cy: mesh.cy, lc: mesh.lc };
+}
