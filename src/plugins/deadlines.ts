@@ -62,9 +62,15 @@ export class DeadlineWatch {
   /** Answers (or, when the answer has begun, cuts off) every request past its deadline. */
   sweep(now: number): void {
     for (const [request, { at, reply }] of this.due) {
+      // A request whose client went away ends without an answer (so without onResponse): drop
+      // it at the next sweep rather than holding it, and its body, until its deadline.
+      if (reply.raw.destroyed || request.raw.destroyed) {
+        this.due.delete(request);
+        continue;
+      }
       if (at > now) continue;
       this.due.delete(request);
-      if (reply.sent || reply.raw.destroyed) continue;
+      if (reply.sent) continue;
       if (reply.raw.headersSent) {
         reply.raw.destroy(new ProblemError(REQUEST_TIMEOUT_PROBLEM()));
         continue;

@@ -85,3 +85,24 @@ describe('deadlines over HTTP', () => {
     expect(app.deadlines.pending).toBe(0);
   });
 });
+
+describe('abandoned requests', () => {
+  it('a request whose client goes away is dropped at the next sweep, long before its deadline', async () => {
+    // Deadlines of 4 s: sweeps every second.
+    const app = await buildApp({ config: { DOCS: false, REQUEST_TIMEOUT_MS: 4000, BATCH_TIMEOUT_MS: 4000 } });
+    try {
+      await app.listen({ host: '127.0.0.1', port: 0 });
+      const port = (app.server.address() as { port: number }).port;
+      const t0 = Date.now();
+      const gone = stalledPost(port, '/v1/batch', 300);
+      await new Promise((r) => setTimeout(r, 150));
+      expect(app.deadlines.pending).toBe(1);
+      await gone;
+      for (let i = 0; i < 100 && app.deadlines.pending > 0; i++) await new Promise((r) => setTimeout(r, 50));
+      expect(app.deadlines.pending).toBe(0);
+      expect(Date.now() - t0).toBeLessThan(3500);
+    } finally {
+      await app.close();
+    }
+  });
+});
