@@ -3,6 +3,10 @@
  * ratio to a trivial arithmetic loop timed in the same run (so the figures travel between
  * machines as ratios). Prints PASS/FAIL against the targets; never used by tests.
  *
+ * It runs compiled by tsc (tsconfig.bench.json into .bench/), as the service ships: under a
+ * just-in-time TypeScript loader the module bindings became getter calls and the fillet check
+ * measured about twice as slow.
+ *
  *   npm run bench:engine            full run
  *   npm run bench:engine -- --short quick run (CI): checks it runs
  */
