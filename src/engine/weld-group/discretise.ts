@@ -166,6 +166,16 @@ export function coarsen(mesh: Mesh, factor: number): Mesh {
   const segStart = i32(segments + 1);
   let e = 0;
   let k = 0;
+  /** Coarse node k is fine node `from` (on segment j). */
+  const copyNode = (from: number, j: number): void => {
+    nx[k] = mesh.nx[from]!;
+    ny[k] = mesh.ny[from]!;
+    ntx[k] = mesh.ntx[from]!;
+    nty[k] = mesh.nty[from]!;
+    nw[k] = mesh.nw[from]!;
+    nseg[k] = j;
+    k++;
+  };
   for (let j = 0; j < segments; j++) {
     const first = mesh.segStart[j]!;
     const m = mesh.segStart[j + 1]! - first;
@@ -194,22 +204,10 @@ export function coarsen(mesh: Mesh, factor: number): Mesh {
       strength[e] = ss;
       len[e] = sl;
       seg[e] = j;
-      nx[k] = mesh.nx[firstNode + a]!;
-      ny[k] = mesh.ny[firstNode + a]!;
-      ntx[k] = mesh.ntx[firstNode + a]!;
-      nty[k] = mesh.nty[firstNode + a]!;
-      nw[k] = mesh.nw[firstNode + a]!;
-      nseg[k] = j;
-      k++;
+      copyNode(firstNode + a, j);
     }
     // the segment's far end
-    nx[k] = mesh.nx[firstNode + m]!;
-    ny[k] = mesh.ny[firstNode + m]!;
-    ntx[k] = mesh.ntx[firstNode + m]!;
-    nty[k] = mesh.nty[firstNode + m]!;
-    nw[k] = mesh.nw[firstNode + m]!;
-    nseg[k] = j;
-    k++;
+    copyNode(firstNode + m, j);
   }
   segStart[segments] = e;
   return { n, nodes, x, y, tx, ty, w, strength, len, seg, nx, ny, ntx, nty, nw, nseg, segStart, cx: mesh.cx, cy: mesh.cy, lc: mesh.lc };
