@@ -65,21 +65,7 @@ export function discretise(
 ): Mesh {
   const n = counts.reduce((a, b) => a + b, 0);
   const nodes = n + segments.length;
-  const x = new Float64Array(n);
-  const y = new Float64Array(n);
-  const tx = new Float64Array(n);
-  const ty = new Float64Array(n);
-  const w = new Float64Array(n);
-  const strength = new Float64Array(n);
-  const len = new Float64Array(n);
-  const seg = new Int32Array(n);
-  const nx = new Float64Array(nodes);
-  const ny = new Float64Array(nodes);
-  const ntx = new Float64Array(nodes);
-  const nty = new Float64Array(nodes);
-  const nw = new Float64Array(nodes);
-  const nseg = new Int32Array(nodes);
-  const segStart = new Int32Array(segments.length + 1);
+  const { x, y, tx, ty, w, strength, len, nx, ny, ntx, nty, nw, seg, nseg, segStart } = meshArrays(n, nodes, segments.length);
   const [cx, cy] = props.centroid;
   const fnw = Fnw(FEXX);
   let e = 0;
@@ -122,6 +108,31 @@ export function discretise(
 }
 
 /**
+ * The arrays of a mesh of `n` elements, `nodes` nodes and `segments` segments, all views of one
+ * buffer: one allocation instead of fifteen (a typed array's own buffer is a separate native
+ * allocation, and an eccentric answer builds several meshes).
+ */
+function meshArrays(n: number, nodes: number, segments: number) {
+  const buffer = new ArrayBuffer(8 * (7 * n + 5 * nodes) + 4 * (n + nodes + segments + 1));
+  let at = 0;
+  const f64 = (length: number): Float64Array => {
+    const a = new Float64Array(buffer, at, length);
+    at += 8 * length;
+    return a;
+  };
+  const i32 = (length: number): Int32Array => {
+    const a = new Int32Array(buffer, at, length);
+    at += 4 * length;
+    return a;
+  };
+  return {
+    x: f64(n), y: f64(n), tx: f64(n), ty: f64(n), w: f64(n), strength: f64(n), len: f64(n),
+    nx: f64(nodes), ny: f64(nodes), ntx: f64(nodes), nty: f64(nodes), nw: f64(nodes),
+    seg: i32(n), nseg: i32(nodes), segStart: i32(segments + 1),
+  };
+}
+
+/**
  * A coarser mesh of the same welds: each segment's elements merged in consecutive runs of about
  * `factor` (at least MIN_ELEMENTS_PER_SEGMENT elements per segment are kept). A merged element
  * sits at the centroid of its run, with the run's length and strength; the nodes are the runs'
@@ -136,34 +147,7 @@ export function coarsen(mesh: Mesh, factor: number): Mesh {
   }
   const n = counts.reduce((a, b) => a + b, 0);
   const nodes = n + segments;
-  // one buffer for all the arrays (the coarse mesh lives only as long as one solve)
-  const buffer = new ArrayBuffer(8 * (7 * n + 5 * nodes) + 4 * (n + nodes + segments + 1));
-  let at = 0;
-  const f64 = (length: number): Float64Array => {
-    const a = new Float64Array(buffer, at, length);
-    at += 8 * length;
-    return a;
-  };
-  const i32 = (length: number): Int32Array => {
-    const a = new Int32Array(buffer, at, length);
-    at += 4 * length;
-    return a;
-  };
-  const x = f64(n);
-  const y = f64(n);
-  const tx = f64(n);
-  const ty = f64(n);
-  const w = f64(n);
-  const strength = f64(n);
-  const len = f64(n);
-  const nx = f64(nodes);
-  const ny = f64(nodes);
-  const ntx = f64(nodes);
-  const nty = f64(nodes);
-  const nw = f64(nodes);
-  const seg = i32(n);
-  const nseg = i32(nodes);
-  const segStart = i32(segments + 1);
+  const { x, y, tx, ty, w, strength, len, nx, ny, ntx, nty, nw, seg, nseg, segStart } = meshArrays(n, nodes, segments);
   let e = 0;
   let k = 0;
   /** Coarse node k is fine node `from` (on segment j). */
