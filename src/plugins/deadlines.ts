@@ -9,8 +9,8 @@
  * calculation, its validation and its serialization together (measured with `npm run bench`,
  * see the README's performance section). Here a request with a deadline costs a clock reading,
  * one Map insert and one delete; a periodic sweep finds the late ones, so a deadline fires
- * between its time and its time plus one sweep interval (at most a quarter of the shortest deadline, and
- * never more than a second).
+ * between its time and its time plus one sweep interval (a quarter of the shortest deadline,
+ * from 25 ms to a second).
  */
 import type { FastifyInstance, FastifyReply, FastifyRequest, onRequestHookHandler, onResponseHookHandler, RouteOptions } from 'fastify';
 import fp from 'fastify-plugin';
@@ -24,7 +24,7 @@ export const REQUEST_TIMEOUT_PROBLEM = () =>
   problem(408, 'request-timeout', 'Request timeout', 'The request was not received and answered within the time this service allows; send the body without pauses, or split a large batch.');
 
 export class DeadlineWatch {
-  /** Requests in flight with a deadline, and the (coarse) time it falls due. */
+  /** Requests in flight with a deadline, the time it falls due (ms since the epoch), and their reply. */
   private readonly due = new Map<FastifyRequest, { at: number; reply: FastifyReply }>();
   private timer: NodeJS.Timeout | undefined;
   readonly sweepMs: number;

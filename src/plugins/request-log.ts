@@ -67,6 +67,8 @@ export function lazyChildLogger(this: unknown, logger: FastifyBaseLogger, bindin
   return new LazyChildLogger(logger, bindings, options) as unknown as FastifyBaseLogger;
 }
 
+const DEFAULT_FORMATTERS = (pino({ enabled: false }) as unknown as Record<symbol, { level?: unknown; log?: unknown }>)[pino.symbols.formattersSym] ?? {};
+
 /** Where a pino logger writes, and the bindings it writes on every line (pid, hostname). */
 interface PinoSink {
   stream: { write(line: string): unknown };
@@ -77,10 +79,15 @@ function pinoSink(log: FastifyBaseLogger): PinoSink | null {
   const stream = (log as unknown as Record<symbol, unknown>)[pino.symbols.streamSym] as PinoSink['stream'] | undefined;
   const chindings = (log as unknown as Record<symbol, unknown>)[pino.symbols.chindingsSym];
   if (!stream || typeof stream.write !== 'function' || typeof chindings !== 'string') return null;
-  // Our own fast line only when nothing would change it: no custom formatters, mixins or hooks.
+  // Our own line only where pino would write the same: epoch time, "msg", no mixin, no log-method
+  // hook, no message prefix, and the default level and log formatters (compared with those of
+  // a plain pino logger). Otherwise every line goes through the logger.
   const l = log as unknown as Record<symbol, unknown>;
-  if (l[pino.symbols.mixinSym] || l[pino.symbols.hooksSym] && (l[pino.symbols.hooksSym] as { logMethod?: unknown }).logMethod) return null;
-  if (l[pino.symbols.messageKeySym] !== 'msg') return null;
+  const hooks = l[pino.symbols.hooksSym] as { logMethod?: unknown } | undefined;
+  const formatters = l[pino.symbols.formattersSym] as { level?: unknown; log?: unknown } | undefined;
+  if (l[pino.symbols.mixinSym] || hooks?.logMethod || l[(pino.symbols as unknown as Record<string, symbol>).msgPrefixSym!]) return null;
+  if (l[pino.symbols.messageKeySym] !== 'msg' || l[pino.symbols.timeSym] !== pino.stdTimeFunctions.epochTime) return null;
+  if (formatters?.level !== DEFAULT_FORMATTERS.level || formatters?.log !== DEFAULT_FORMATTERS.log) return null;
   return { stream, chindings };
 }
 

@@ -98,3 +98,22 @@ describe('lazy per-request logger', () => {
     expect(logged[1]).toMatchObject({ level: 30, reqId: 'r-1', msg: 'again' });
   });
 });
+
+describe('a logger configured otherwise', () => {
+  it('with ISO times and level labels, the request line goes through the logger and keeps its format', async () => {
+    const out: string[] = [];
+    const custom = pino(
+      { level: 'info', timestamp: pino.stdTimeFunctions.isoTime, formatters: { level: (label) => ({ level: label }) } },
+      new Writable({ write: (c: Buffer, _e, d) => (out.push(c.toString()), d()) }),
+    );
+    const a = await buildApp({ config: { DOCS: false }, loggerInstance: custom });
+    try {
+      await a.inject({ method: 'POST', url: '/v1/fillet/check', headers: { 'content-type': 'application/json', 'x-request-id': 'iso-1' }, payload: FILLET });
+      const line = out.join('').trim().split('\n').map((l) => JSON.parse(l) as Record<string, unknown>).find((l) => l.msg === 'request');
+      expect(line).toMatchObject({ level: 'info', reqId: 'iso-1', method: 'POST', path: '/v1/fillet/check', status: 200 });
+      expect(String(line?.time)).toMatch(/^\d{4}-\d{2}-\d{2}T/);
+    } finally {
+      await a.close();
+    }
+  });
+});
