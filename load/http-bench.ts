@@ -10,7 +10,9 @@
  *   npm run bench -- --rounds 5 --duration 10
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, openSync } from 'node:fs';
+import { existsSync, openSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import http from 'node:http';
 import autocannon from 'autocannon';
 import { cpuMicros, fmt, median, rssMiB, table } from './lib.js';
@@ -124,7 +126,7 @@ interface Run {
   errors: number;
 }
 
-async function cannon(server: Server, s: Scenario): Promise<Run> {
+async function cannon(server: Server, s: Scenario, seconds = DURATION): Promise<Run> {
   const cpu0 = cpuMicros(server.proc.pid!);
   const r = await autocannon({
     url: `http://127.0.0.1:${server.port}${s.path}`,
@@ -132,7 +134,7 @@ async function cannon(server: Server, s: Scenario): Promise<Run> {
     headers: s.contentType ? { 'content-type': s.contentType } : {},
     body: s.body,
     connections: s.items > 1 ? 4 : CONNECTIONS,
-    duration: DURATION,
+    duration: seconds,
   });
   const cpu1 = cpuMicros(server.proc.pid!);
   const total = r.requests.total || 1;
@@ -204,9 +206,14 @@ async function main(): Promise<void> {
     const b = spawnSync('npm', ['run', '-s', 'build'], { stdio: 'inherit' });
     if (b.status !== 0) throw new Error('build failed');
   }
-  const baseline = await start('baseline', 'load/baseline-server.mjs', 3901, '/bench');
   const service = await start('service', 'dist/server.js', 3902, '/readyz', { LOG_LEVEL: 'info' });
   const startupMs = service.startupMs;
+  // The service's fillet answer, for the baseline's second reference route (same bytes, constant).
+  const answerFile = join(tmpdir(), `throatline-bench-answer-${process.pid}.json`);
+  const answerRes = await fetch(`http://127.0.0.1:${service.port}/v1/fillet/check`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(fillet) });
+  const answerText = await answerRes.text();
+  writeFileSync(answerFile, answerText);
+  const baseline = await start('baseline', 'load/baseline-server.mjs', 3901, '/bench', { BENCH_ANSWER_FILE: answerFile });
 
   const filletQuery =
     '/v1/fillet/check?method=LRFD&electrode=E70&welds.0.size=5/16&welds.0.length=10&welds.0.count=2&load.force=120' +
@@ -233,14 +240,26 @@ async function main(): Promise<void> {
   if (ONLY !== undefined) scenarios.splice(0, scenarios.length, ...scenarios.filter((s) => s.name.toLowerCase().includes(ONLY)));
   const runNdjson = ONLY === undefined || 'ndjson'.includes(ONLY) || ONLY.includes('ndjson');
   const results = new Map<string, { base: Run[]; svc: Run[] }>();
+  /** The fillet scenario against the baseline sending the same answer as a constant. */
+  const sameAnswer: Run[] = [];
   const rssByRound: number[] = [];
   const ndjsonRuns: Array<Run & { peakRssGrowth: number }> = [];
   const ndjsonCompact: Array<Run & { peakRssGrowth: number }> = [];
+  // Warm-up, not recorded: the service compiles validators and serializers on first use and the
+  // rest in the background after it starts, and both servers' code needs the JIT's attention.
+  if (!short) {
+    for (const s of scenarios) {
+      await cannon(service, { ...s, name: 'warm-up' }, 1);
+      await cannon(baseline, { ...s, path: '/bench' }, 1);
+    }
+    await new Promise((r) => setTimeout(r, 1000));
+  }
   for (let round = 1; round <= ROUNDS; round++) {
     for (const s of scenarios) {
       const entry = results.get(s.name) ?? { base: [], svc: [] };
       const baseScenario = { ...s, path: s.method === 'GET' ? '/bench' : '/bench' };
       entry.base.push(await cannon(baseline, baseScenario));
+      if (s.name === 'fillet check') sameAnswer.push(await cannon(baseline, { ...s, path: '/bench-answer' }));
       entry.svc.push(await cannon(service, s));
       results.set(s.name, entry);
     }
@@ -302,6 +321,16 @@ async function main(): Promise<void> {
   console.log(table(rows));
   console.log('');
   for (const [what, ok, figure] of verdicts) console.log(`${short ? 'INFO' : ok ? 'PASS' : 'FAIL'}  ${what}: ${figure}`);
+  const filletRuns = results.get('fillet check');
+  if (filletRuns && sameAnswer.length === filletRuns.svc.length && sameAnswer.length > 0) {
+    const r = median(filletRuns.svc.map((x, i) => x.rps / sameAnswer[i]!.rps));
+    const c = median(filletRuns.svc.map((x, i) => x.cpuPerReq / sameAnswer[i]!.cpuPerReq));
+    console.log(
+      `INFO  fillet route against the baseline sending the same ${answerText.length}-byte answer as a constant ` +
+        `(${fmt(median(sameAnswer.map((x) => x.rps)))} req/s, ${fmt(median(sameAnswer.map((x) => x.cpuPerReq)))} µs CPU/req): ${fmt(r)} × throughput, ${fmt(c)} × CPU per request`,
+    );
+  }
+  rmSync(answerFile, { force: true });
 
   for (const s of [baseline, service]) s.proc.kill('SIGTERM');
 }
