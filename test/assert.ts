@@ -17,3 +17,14 @@ export function codeOf(fn: () => unknown): string | undefined {
   }
   return undefined;
 }
+
+/** The error of class `type` that fn throws; fails when fn throws nothing, rethrows any other error. */
+export function thrown<E extends Error>(fn: () => unknown, type: new (...args: never[]) => E): E {
+  try {
+    fn();
+  } catch (err) {
+    if (err instanceof type) return err;
+    throw err;
+  }
+  throw new Error(`expected a ${type.name}, nothing was thrown`);
+}

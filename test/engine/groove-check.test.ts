@@ -8,6 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { checkCjp, checkPjp, type CjpRequest, type PjpRequest } from '../../src/engine/groove.js';
 import { EngineError } from '../../src/engine/errors.js';
+import { thrown } from '../assert.js';
 import type { EngineResult, Check } from '../../src/engine/result.js';
 
 /** 1/2 in 60-degree V by SMAW (te = S = 0.5 in), 10 in long: Awe = 5 in². Two 1 in A992 parts (Fy 50, Fu 65). */
@@ -52,16 +53,6 @@ const find = (r: EngineResult<unknown>, code: string, part?: number): Check => {
   return c;
 };
 const codes = (xs: Array<{ code: string }>): string[] => xs.map((x) => x.code);
-
-function engineError(fn: () => unknown): EngineError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof EngineError) return e;
-    throw e;
-  }
-  throw new Error('no EngineError thrown');
-}
 
 describe('PJP strength, Table J2.5 rows (imperial, Awe = 0.5 in × 10 in = 5 in²)', () => {
   it('tension normal to the axis: weld 0.80 × 0.60 × 70 × 5 = 168 kip; base 0.75 × 65 × 5 = 243.75 kip per part; weld governs', () => {
@@ -212,13 +203,13 @@ describe('PJP throat', () => {
   });
 
   it('flare by plain FCAW has no prequalified throat (Table J2.2 needs FCAW-G or FCAW-S)', () => {
-    const e = engineError(() => checkPjp(pjp({}, { type: 'flare-bevel', process: 'FCAW', depths: null, radius: 1 })));
+    const e = thrown(() => checkPjp(pjp({}, { type: 'flare-bevel', process: 'FCAW', depths: null, radius: 1 })), EngineError);
     expect(e.code).toBe('PJP_NO_PREQUALIFIED_THROAT');
     expect(e.message).toMatch(/FCAW-G or FCAW-S/);
   });
 
   it('SAW 45-degree bevel: no prequalified throat, the answer asks for a qualified throat', () => {
-    const e = engineError(() => checkPjp(pjp({}, { type: 'bevel-45', process: 'SAW', position: 'flat' })));
+    const e = thrown(() => checkPjp(pjp({}, { type: 'bevel-45', process: 'SAW', position: 'flat' })), EngineError);
     expect(e.code).toBe('PJP_NO_PREQUALIFIED_THROAT');
     expect(e.message).toMatch(/qualifiedThroat/);
   });
@@ -240,7 +231,7 @@ describe('PJP throat', () => {
   });
 
   it('a groove no deeper than the deduction leaves no throat: 422 PJP_GROOVE_TOO_SHALLOW', () => {
-    const e = engineError(() => checkPjp(pjp({}, { type: 'bevel-45', process: 'SMAW', depths: [0.125] })));
+    const e = thrown(() => checkPjp(pjp({}, { type: 'bevel-45', process: 'SMAW', depths: [0.125] })), EngineError);
     expect(e.code).toBe('PJP_GROOVE_TOO_SHALLOW');
   });
 

@@ -11,22 +11,13 @@
 import { describe, expect, it } from 'vitest';
 import { ELECTRODES, STEELS, resolveElectrode, resolveSteel } from '../../src/engine/materials.js';
 import { EngineError } from '../../src/engine/errors.js';
+import { thrown } from '../assert.js';
 import { convertForce, convertLength, convertStress, parseFraction } from '../../src/engine/units.js';
 
 function close(actual: number, expected: number, tol = 1e-9): void {
   const slack = tol * Math.abs(expected);
   expect(actual, `expected ${expected} within ${tol} relative, got ${actual}`).toBeGreaterThanOrEqual(expected - slack);
   expect(actual, `expected ${expected} within ${tol} relative, got ${actual}`).toBeLessThanOrEqual(expected + slack);
-}
-
-function engineError(f: () => unknown): EngineError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof EngineError) return e;
-    throw e;
-  }
-  throw new Error('expected an EngineError, nothing was thrown');
 }
 
 describe('ASTM grades at usual thicknesses (AISC Manual Table 2-3 / 2-4, from memory)', () => {
@@ -114,7 +105,7 @@ describe('thickness bands', () => {
     ['A588', 8.5, 'imperial'],
     ['S355', 81, 'metric'],
   ] as const)('%s at %s (%s) is out of range → MATERIAL_THICKNESS_OUT_OF_RANGE', (name, t, sys) => {
-    const e = engineError(() => resolveSteel(name, t, sys, '/parts/1/steel'));
+    const e = thrown(() => resolveSteel(name, t, sys, '/parts/1/steel'), EngineError);
     expect(e.code).toBe('MATERIAL_THICKNESS_OUT_OF_RANGE');
     expect(e.pointer).toBe('/parts/1/steel');
   });
@@ -134,14 +125,14 @@ describe('steel given by numbers', () => {
   });
 
   it('fy > fu → MATERIAL_FY_EXCEEDS_FU with the pointer', () => {
-    const e = engineError(() => resolveSteel({ fy: 70, fu: 65 }, 1, 'imperial', '/parts/0/steel'));
+    const e = thrown(() => resolveSteel({ fy: 70, fu: 65 }, 1, 'imperial', '/parts/0/steel'), EngineError);
     expect(e.code).toBe('MATERIAL_FY_EXCEEDS_FU');
     expect(e.pointer).toBe('/parts/0/steel');
   });
 
   it('an unknown name → UNKNOWN_MATERIAL', () => {
-    expect(engineError(() => resolveSteel('A999', 1, 'imperial', '/p')).code).toBe('UNKNOWN_MATERIAL');
-    expect(engineError(() => resolveElectrode('E71', 'imperial', '/electrode')).code).toBe('UNKNOWN_MATERIAL');
+    expect(thrown(() => resolveSteel('A999', 1, 'imperial', '/p'), EngineError).code).toBe('UNKNOWN_MATERIAL');
+    expect(thrown(() => resolveElectrode('E71', 'imperial', '/electrode'), EngineError).code).toBe('UNKNOWN_MATERIAL');
   });
 });
 

@@ -33,6 +33,7 @@ import {
   wMinSlot,
 } from '../../src/engine/provisions/plug-slot.js';
 import { EngineError } from '../../src/engine/errors.js';
+import { codeOf } from '../assert.js';
 import type { Limit } from '../../src/engine/result.js';
 
 const plug = (diameter: number, count = 1, spacing: number | null = null, spacingAcross: number | null = null): HolePattern => ({
@@ -64,16 +65,6 @@ function limitOf(limits: Limit[], code: string, index = 0): Limit {
   const found = limits.filter((l) => l.code === code)[index];
   if (!found) throw new Error(`no limit ${code} in ${limits.map((l) => l.code).join(', ')}`);
   return found;
-}
-
-function thrownCode(f: () => unknown): string | undefined {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof EngineError) return e.code;
-    throw e;
-  }
-  return undefined;
 }
 
 describe('least plug diameter / slot width: t + 5/16 in rounded up to the next odd 1/16 in', () => {
@@ -236,8 +227,8 @@ describe('the check: spacing of a pattern', () => {
     expect(checkPlugSlot(request({ hole: plug(0.8125, 1, 1) })).limits.some((l) => l.code === 'PLUG_SPACING')).toBe(false);
   });
   it('a pattern without any spacing, or with overlapping holes, cannot be answered', () => {
-    expect(thrownCode(() => checkPlugSlot(request({ hole: plug(0.8125, 4) })))).toBe('GEOMETRY_MEANINGLESS');
-    expect(thrownCode(() => checkPlugSlot(request({ hole: plug(0.8125, 4, 0.5) })))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(request({ hole: plug(0.8125, 4) })))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(request({ hole: plug(0.8125, 4, 0.5) })))).toBe('GEOMETRY_MEANINGLESS');
   });
 });
 
@@ -285,8 +276,8 @@ describe('the check: slot limits', () => {
     expect(checkPlugSlot(request({ hole: slot(4, 1, { ends: ['to-edge', 'semicircular'] }) })).limits.some((l) => l.code === 'SLOT_END_RADIUS')).toBe(false);
   });
   it('a corner radius over half the width, or ends that do not fit the length, cannot be answered', () => {
-    expect(thrownCode(() => checkPlugSlot(request({ hole: slot(4, 1, { ends: ['rounded', 'rounded'], radius: 0.6 }) })))).toBe('GEOMETRY_MEANINGLESS');
-    expect(thrownCode(() => checkPlugSlot(request({ hole: slot(0.75, 1) })))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(request({ hole: slot(4, 1, { ends: ['rounded', 'rounded'], radius: 0.6 }) })))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(request({ hole: slot(0.75, 1) })))).toBe('GEOMETRY_MEANINGLESS');
   });
   it('slots on a line: 2·L = 8 in centre to centre passes, 7-1/2 in fails SLOT_SPACING_ALONG', () => {
     expect(limitOf(checkPlugSlot(request({ hole: slot(4, 0.8125, { count: 3, spacing: 8 }) })).limits, 'SLOT_SPACING_ALONG').pass).toBe(true);
@@ -323,7 +314,7 @@ describe('the check: depth of fill', () => {
     expect(r.warnings.map((w) => w.code)).toContain('PLUG_SLOT_FILL_ASSUMED');
   });
   it('a fill deeper than the part cannot be answered', () => {
-    expect(thrownCode(() => checkPlugSlot(request({ fill: 0.6 })))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(request({ fill: 0.6 })))).toBe('GEOMETRY_MEANINGLESS');
   });
 });
 
@@ -444,7 +435,7 @@ describe('the check: advice', () => {
   it('two parts are needed, exactly one with the hole', () => {
     const none = request({ parts: [{ thickness: 0.5, steel: 'A36', hasHole: false }, { thickness: 0.5, steel: 'A36', hasHole: false }] });
     const both = request({ parts: [{ thickness: 0.5, steel: 'A36', hasHole: true }, { thickness: 0.5, steel: 'A36', hasHole: true }] });
-    expect(thrownCode(() => checkPlugSlot(none))).toBe('GEOMETRY_MEANINGLESS');
-    expect(thrownCode(() => checkPlugSlot(both))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(none))).toBe('GEOMETRY_MEANINGLESS');
+    expect(codeOf(() => checkPlugSlot(both))).toBe('GEOMETRY_MEANINGLESS');
   });
 });

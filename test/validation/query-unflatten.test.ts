@@ -6,16 +6,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { RequestFieldError } from '../../src/operations/shared.js';
 import { coerce, unflatten } from '../../src/query.js';
-
-function refusal(f: () => unknown): RequestFieldError {
-  try {
-    f();
-  } catch (err) {
-    if (err instanceof RequestFieldError) return err;
-    throw err;
-  }
-  throw new Error('expected a RequestFieldError');
-}
+import { thrown } from '../assert.js';
 
 describe('unflatten', () => {
   it('builds nested objects and arrays from dotted names', () => {
@@ -27,16 +18,16 @@ describe('unflatten', () => {
   });
 
   it('a gap in the indexes names the missing item', () => {
-    const e = refusal(() => unflatten({ 'welds.1.size': '1/4' }));
+    const e = thrown(() => unflatten({ 'welds.1.size': '1/4' }), RequestFieldError);
     expect(e.pointer).toBe('/welds/0');
-    const deep = refusal(() => unflatten({ 'parts.0.steel': 'A36', 'welds.0.size': '1/4', 'welds.2.size': '1/4' }));
+    const deep = thrown(() => unflatten({ 'parts.0.steel': 'A36', 'welds.0.size': '1/4', 'welds.2.size': '1/4' }), RequestFieldError);
     expect(deep.pointer).toBe('/welds/1');
   });
 
   it('a bad name is refused with its pointer', () => {
-    expect(refusal(() => unflatten({ 'welds.0.__proto__': 'x' })).pointer).toBe('/welds/0/__proto__');
-    expect(refusal(() => unflatten({ 'load.force.x': '1', 'load.force': '2' })).pointer).toBe('/load/force');
-    expect(refusal(() => unflatten({ 'welds.01.size': '1' })).pointer).toBe('/welds/01/size');
+    expect(thrown(() => unflatten({ 'welds.0.__proto__': 'x' }), RequestFieldError).pointer).toBe('/welds/0/__proto__');
+    expect(thrown(() => unflatten({ 'load.force.x': '1', 'load.force': '2' }), RequestFieldError).pointer).toBe('/load/force');
+    expect(thrown(() => unflatten({ 'welds.01.size': '1' }), RequestFieldError).pointer).toBe('/welds/01/size');
   });
 
   it('never throws anything but a RequestFieldError, whatever the names (property)', () => {
