@@ -12,29 +12,12 @@
  */
 import { checkFillet, type FilletRequest } from '../src/engine/fillet.js';
 import { benches as extraBenches } from './engine-bench-extra.js';
-import { fmt, median, table } from './lib.js';
+import { benchSink, fmt, median, nsPerCall, table } from './lib.js';
 
 const short = process.argv.includes('--short');
 const ROUNDS = short ? 1 : 5;
 const TARGET_MS = short ? 20 : 300;
 
-let sink = 0;
-
-/** Runs fn in batches until about TARGET_MS have passed; returns ns per call. */
-function nsPerCall(fn: () => unknown): number {
-  for (let i = 0; i < 2000; i++) fn();
-  let n = 1000;
-  for (;;) {
-    const t0 = process.hrtime.bigint();
-    for (let i = 0; i < n; i++) {
-      const r = fn();
-      if (r === undefined) sink++;
-    }
-    const ns = Number(process.hrtime.bigint() - t0);
-    if (ns > TARGET_MS * 1e6 || n > 1e8) return ns / n;
-    n *= 2;
-  }
-}
 
 const trivial = (() => {
   let x = 1.0001;
@@ -70,7 +53,7 @@ benches.push(...extraBenches);
 
 const samples = new Map<string, number[]>();
 for (let r = 0; r < ROUNDS; r++) {
-  for (const b of benches) samples.set(b.name, [...(samples.get(b.name) ?? []), nsPerCall(b.fn)]);
+  for (const b of benches) samples.set(b.name, [...(samples.get(b.name) ?? []), nsPerCall(b.fn, TARGET_MS)]);
 }
 const base = median(samples.get(benches[0]!.name)!);
 const rows = [['benchmark', 'ns/call', 'ratio to trivial loop', 'target']];
@@ -84,4 +67,4 @@ console.log(`\nThroatline engine micro-benchmarks, median of ${ROUNDS} round(s)\
 console.log(table(rows));
 console.log('');
 for (const v of verdicts) console.log(v);
-if (sink === -1) console.log(sink);
+if (benchSink() === -1) console.log('');

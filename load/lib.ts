@@ -35,3 +35,26 @@ export function table(rows: string[][]): string {
   const widths = rows[0]!.map((_, i) => Math.max(...rows.map((r) => (r[i] ?? '').length)));
   return rows.map((r) => r.map((c, i) => (i === 0 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join('  ')).join('\n');
 }
+
+let sink = 0;
+
+/**
+ * Nanoseconds per call of fn: `warmup` calls first, then batches doubling from `first` calls
+ * until one batch takes about targetMs. Every result is looked at, so no call can be dropped.
+ */
+export function nsPerCall(fn: () => unknown, targetMs: number, warmup = 2000, first = 1000): number {
+  for (let i = 0; i < warmup; i++) if (fn() === undefined) sink++;
+  let n = first;
+  for (;;) {
+    const t0 = process.hrtime.bigint();
+    for (let i = 0; i < n; i++) if (fn() === undefined) sink++;
+    const ns = Number(process.hrtime.bigint() - t0);
+    if (ns > targetMs * 1e6 || n > 1e8) return ns / n;
+    n *= 2;
+  }
+}
+
+/** Read at the end of a benchmark so the results above stay observable. */
+export function benchSink(): number {
+  return sink;
+}

@@ -12,7 +12,7 @@
  *   npm run bench:weld-group            full run
  *   npm run bench:weld-group -- --short quick run
  */
-import { fmt, median, table } from './lib.js';
+import { benchSink, fmt, median, nsPerCall, table } from './lib.js';
 import { IMPERIAL } from '../src/engine/units.js';
 import { discretise } from '../src/engine/weld-group/discretise.js';
 import { elasticCapacity } from '../src/engine/weld-group/elastic.js';
@@ -23,20 +23,6 @@ import { analyseWeldGroup } from '../src/engine/weld-group/check.js';
 const short = process.argv.includes('--short');
 const ROUNDS = short ? 1 : 5;
 const TARGET_MS = short ? 30 : 400;
-let sink = 0;
-
-/** Runs fn in batches until about TARGET_MS have passed; returns ns per call. */
-function nsPerCall(fn: () => number): number {
-  for (let i = 0; i < 20; i++) sink += fn();
-  let n = 8;
-  for (;;) {
-    const t0 = process.hrtime.bigint();
-    for (let i = 0; i < n; i++) sink += fn();
-    const ns = Number(process.hrtime.bigint() - t0);
-    if (ns > TARGET_MS * 1e6 || n > 1e8) return ns / n;
-    n *= 2;
-  }
-}
 
 const trivial = (() => {
   let x = 1.0001;
@@ -68,7 +54,7 @@ const cases: Case[] = [
 ];
 
 const rows = [['case', 'ns per ICR solve', 'elements/s', 'ns per element per solve', 'ICR / elastic', 'ICR / trivial loop', 'iterations']];
-const base = median(Array.from({ length: ROUNDS }, () => nsPerCall(trivial)));
+const base = median(Array.from({ length: ROUNDS }, () => nsPerCall(trivial, TARGET_MS, 20, 8)));
 for (const c of cases) {
   const throats = c.segments.map(() => TE);
   const props = groupProperties(c.segments, throats);
@@ -76,8 +62,8 @@ for (const c of cases) {
   const icr = () => solveIcr(mesh, c.load).capacity;
   const arm: [number, number, number] = [c.load.e * c.load.dy, -c.load.e * c.load.dx, 0];
   const elastic = () => elasticCapacity(c.segments, throats, props, { f: [c.load.dx, c.load.dy, 0], arm }, 70, IMPERIAL).capacity;
-  const icrNs = median(Array.from({ length: ROUNDS }, () => nsPerCall(icr)));
-  const elasticNs = median(Array.from({ length: ROUNDS }, () => nsPerCall(elastic)));
+  const icrNs = median(Array.from({ length: ROUNDS }, () => nsPerCall(icr, TARGET_MS, 20, 8)));
+  const elasticNs = median(Array.from({ length: ROUNDS }, () => nsPerCall(elastic, TARGET_MS, 20, 8)));
   const iterations = solveIcr(mesh, c.load).iterations;
   rows.push([c.name, fmt(icrNs), fmt((mesh.n / icrNs) * 1e9), fmt(icrNs / mesh.n), fmt(icrNs / elasticNs), fmt(icrNs / base), String(iterations)]);
 }
@@ -93,6 +79,9 @@ const fullNs = median(
           load: { direction: [0, -1, 0], magnitude: 30, at: [12, 5], eccentricity: null, standoff: 0 },
           parts: [], analysis: 'icr', elements: null, referenceLength: null, estimateError: true,
         }).result.utilization,
+      TARGET_MS,
+      20,
+      8,
     ),
   ),
 );
@@ -100,4 +89,4 @@ const fullNs = median(
 console.log(`\nThroatline eccentric weld group benchmark, median of ${ROUNDS} round(s); trivial loop (100 steps): ${fmt(base)} ns\n`);
 console.log(table(rows));
 console.log(`\nwhole answer for the C (ICR + half-element estimate + elastic + sizing): ${fmt(fullNs)} ns (${fmt(fullNs / base)} × trivial loop)`);
-if (sink === 42) console.log('');
+if (benchSink() === -1) console.log('');
