@@ -5,7 +5,8 @@
 #     --security-opt no-new-privileges throatline
 #
 # Three stages on the same base: production dependencies, the TypeScript build, and the
-# runtime image that holds only package.json, the production node_modules and dist/. The
+# runtime image that holds only package.json, the production node_modules (the bundle leaves
+# two packages outside: the PDF browser driver and the docs page's static files) and dist/. The
 # service writes nothing to disk, so it runs on a read-only root filesystem as the unprivileged
 # user `node`.
 
@@ -15,7 +16,8 @@ WORKDIR /app
 COPY package.json package-lock.json ./
 RUN npm ci --omit=dev --no-audit --no-fund && npm cache clean --force
 
-# ---- build: all dependencies, compile src/ to dist/
+# ---- build: all dependencies, compile src/ to dist/ and bundle the service into one file,
+# dist/throatline.js (src/bin/bundle.ts), which the runtime starts
 FROM node:24-slim AS build
 WORKDIR /app
 COPY package.json package-lock.json ./
@@ -46,4 +48,4 @@ STOPSIGNAL SIGTERM
 # No curl in the slim image: node itself asks /healthz.
 HEALTHCHECK --interval=30s --timeout=5s --start-period=10s --retries=3 \
   CMD ["node", "-e", "fetch('http://127.0.0.1:' + (process.env.PORT || 3000) + '/healthz').then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))"]
-CMD ["node", "dist/server.js"]
+CMD ["node", "dist/throatline.js"]

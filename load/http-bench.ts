@@ -1,5 +1,5 @@
 /**
- * HTTP benchmark: the service as shipped (dist/server.js with its own logging) against a bare
+ * HTTP benchmark: the service as shipped (dist/throatline.js, the single-file build, with its own logging) against a bare
  * Fastify baseline (load/baseline-server.mjs), in interleaved rounds on this machine. The
  * servers are pinned to core 0 and this load generator to core 1 (taskset). Prints, per
  * scenario, requests/s, server CPU µs per request, p50/p99 latency, errors, and the ratio to the
@@ -202,11 +202,11 @@ async function ndjson(server: Server, path: string): Promise<Run & { peakRssGrow
 }
 
 async function main(): Promise<void> {
-  if (!existsSync('dist/server.js') || !short) {
+  if (!existsSync('dist/throatline.js') || !short) {
     const b = spawnSync('npm', ['run', '-s', 'build'], { stdio: 'inherit' });
     if (b.status !== 0) throw new Error('build failed');
   }
-  const service = await start('service', 'dist/server.js', 3902, '/readyz', { LOG_LEVEL: 'info' });
+  const service = await start('service', 'dist/throatline.js', 3902, '/readyz', { LOG_LEVEL: 'info' });
   const startupMs = service.startupMs;
   // The service's fillet answer, for the baseline's second reference route (same bytes, constant).
   const answerFile = join(tmpdir(), `throatline-bench-answer-${process.pid}.json`);

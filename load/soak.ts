@@ -7,7 +7,7 @@
  *
  *   npm run soak                       20 s, 32 concurrent clients
  *   npm run soak -- --seconds 5        a short run (CI)
- *   npm run soak -- --concurrency 64 --built   against dist/server.js (after npm run build)
+ *   npm run soak -- --concurrency 64 --built   against dist/throatline.js (after npm run build)
  *
  * Traffic goes to 127.0.0.1 only; the loop stops at the deadline.
  */
@@ -136,7 +136,7 @@ function percentile(sorted: number[], p: number): number {
 // ---------------------------------------------------------------- run
 async function main(): Promise<void> {
   const port = await freePort();
-  const argv = BUILT ? ['dist/server.js'] : ['--import', 'tsx', 'src/server.ts'];
+  const argv = BUILT ? ['dist/throatline.js'] : ['--import', 'tsx', 'src/server.ts'];
   const server = spawn(process.execPath, argv, {
     cwd: ROOT,
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), LOG_LEVEL: 'info', NODE_ENV: 'production', BODY_LIMIT: String(BODY_LIMIT), JSON_MAX_DEPTH: String(JSON_MAX_DEPTH), DRAIN_DELAY_MS: '0', DOCS: 'false' },
@@ -150,7 +150,7 @@ async function main(): Promise<void> {
     if (!up) await delay(100);
   }
   if (!up) throw new Error('server did not become ready within 30 s');
-  console.log(`soak: ${SECONDS} s, ${CONCURRENCY} concurrent clients, ${BUILT ? 'dist/server.js' : 'src/server.ts (tsx)'} on 127.0.0.1:${port}`);
+  console.log(`soak: ${SECONDS} s, ${CONCURRENCY} concurrent clients, ${BUILT ? 'dist/throatline.js' : 'src/server.ts (tsx)'} on 127.0.0.1:${port}`);
 
   // Warm-up (a tenth of the run, at most 3 s) before the memory baseline.
   let n = 0;

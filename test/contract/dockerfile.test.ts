@@ -8,6 +8,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { join, posix } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { BUNDLE_PATH } from '../../src/bin/bundle.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const DOCKERFILE = readFileSync(join(ROOT, 'Dockerfile'), 'utf8');
@@ -179,10 +180,10 @@ describe('Dockerfile stages', () => {
     expect(argv.join(' ')).not.toMatch(/\b(curl|wget)\b/);
   });
 
-  it('CMD runs node dist/server.js (exec form, so node receives SIGTERM)', () => {
+  it('CMD runs node on the single-file build (exec form, so node receives SIGTERM)', () => {
     const cmds = ops(RUNTIME, 'CMD');
     expect(cmds).toHaveLength(1);
-    expect(JSON.parse(cmds[0]!.args)).toEqual(['node', 'dist/server.js']);
+    expect(JSON.parse(cmds[0]!.args)).toEqual(['node', BUNDLE_PATH]);
   });
 });
 
@@ -230,13 +231,17 @@ describe('what the stages copy exists', () => {
     expect(build.compilerOptions.outDir).toBe('dist');
     expect(build.compilerOptions.rootDir).toBe('src');
     expect(existsSync(join(ROOT, 'src', 'server.ts'))).toBe(true);
+    // `npm run build` compiles, then bundles src/server.ts into BUNDLE_PATH under dist/.
+    const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { scripts: Record<string, string> };
+    expect(pkg.scripts.build).toMatch(/^tsc -p tsconfig\.build\.json && tsx src\/bin\/bundle\.ts$/);
+    expect(BUNDLE_PATH.startsWith(`${build.compilerOptions.outDir}/`)).toBe(true);
   });
 
-  it('package.json is in the runtime (the service reads its version from it) and its start script matches CMD', () => {
+  it('package.json is in the runtime and its start script matches CMD', () => {
     const copies = ops(RUNTIME, 'COPY').map((x) => parseCopy(x.args));
     expect(copies.some((c) => !c.from && c.sources.includes('package.json'))).toBe(true);
     const pkg = JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { scripts: Record<string, string> };
-    expect(pkg.scripts.start).toBe('node dist/server.js');
+    expect(pkg.scripts.start).toBe(`node ${BUNDLE_PATH}`);
   });
 
   it('.dockerignore keeps local build output, dependencies and VCS data out of the context', () => {

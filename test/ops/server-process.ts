@@ -1,5 +1,5 @@
 /**
- * Test helper: the real server (src/server.ts through tsx) as a child process on a free
+ * Test helper: the real server (src/server.ts through tsx, or a built file) as a child process on a free
  * loopback port, and small HTTP clients that report exactly how each request ended.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
@@ -28,9 +28,10 @@ export async function freePort(): Promise<number> {
   });
 }
 
-export async function startServer(env: Record<string, string>): Promise<ServerProcess> {
+/** The sources through tsx, unless `argv` names another entry (the bundle, say). */
+export async function startServer(env: Record<string, string>, argv: readonly string[] = ['--import', 'tsx', 'src/server.ts']): Promise<ServerProcess> {
   const port = await freePort();
-  const proc = spawn(process.execPath, ['--import', 'tsx', 'src/server.ts'], {
+  const proc = spawn(process.execPath, [...argv], {
     cwd: ROOT,
     env: { ...process.env, HOST: '127.0.0.1', PORT: String(port), LOG_LEVEL: 'info', NODE_ENV: 'production', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
