@@ -214,29 +214,71 @@ const YIELD_EVERY = 256;
 const yieldToLoop = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
 
 /**
- * The JSON answer to an array of items, streamed a slice of results at a time: `{"results":[`,
- * the results joined per slice, then `],"summary":{...}}`. Each slice's text is joined into one
- * flat string and sent on, so the items' answers die young instead of all being held (as trees
- * of string pieces) until the last item is done: holding them made garbage collection about a
- * third of a 1,000-item batch's CPU and its resident memory grow by a hundred megabytes.
+ * Answer text gathered as UTF-8 bytes, one result at a time, and taken as one Buffer per slice.
+ * Each result is encoded as soon as it is made: a serialized answer is a tree of string pieces
+ * (several times the size of its text) until something flattens it, and holding a slice's worth
+ * of such trees until the slice was joined made them outlive young-generation collections, so
+ * garbage collection took a quarter of a full-answer batch's CPU. Encoded at once they die young;
+ * the socket then writes bytes without encoding them again. Measured on 1,000 full fillet
+ * answers per request: 37-41 ms of CPU per request with joined strings, 27-31 ms so; an
+ * NDJSON stream of full answers 29-32 against 25-28 µs per line.
  */
-async function* jsonResults(items: readonly unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<string> {
+export class Utf8Slices {
+  private buf: Buffer;
+  private used = 0;
+
+  /** `capacity`: room for a slice of compact results; grows (doubling) for full answers and keeps that size. */
+  constructor(private capacity = 64 * 1024) {
+    this.buf = Buffer.allocUnsafe(capacity);
+  }
+
+  add(text: string): void {
+    // UTF-8 takes at most 3 bytes per UTF-16 unit, so this much room always holds the text.
+    const room = text.length * 3;
+    if (this.used + room > this.buf.length) {
+      this.capacity = Math.max(this.capacity * 2, this.used + room);
+      const bigger = Buffer.allocUnsafe(this.capacity);
+      this.buf.copy(bigger, 0, 0, this.used);
+      this.buf = bigger;
+    }
+    this.used += this.buf.write(text, this.used, 'utf8');
+  }
+
+  get empty(): boolean {
+    return this.used === 0;
+  }
+
+  /** The bytes gathered so far; the next ones go into a fresh buffer (the socket may still be writing these). */
+  take(): Buffer {
+    const b = this.buf.subarray(0, this.used);
+    this.buf = Buffer.allocUnsafe(this.capacity);
+    this.used = 0;
+    return b;
+  }
+}
+
+/**
+ * The JSON answer to an array of items, streamed a slice of results at a time: `{"results":[`,
+ * the results, then `],"summary":{...}}`, so that a large batch neither holds every answer
+ * until the last item is done nor keeps the event loop for the whole batch.
+ */
+async function* jsonResults(items: readonly unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<Buffer> {
   const counts = { items: items.length, pass: 0, fail: 0, error: 0 };
-  let slice: string[] = [];
-  yield '{"results":[';
+  const out = new Utf8Slices();
+  out.add('{"results":[');
   for (let i = 0; i < items.length; i++) {
     // Give the event loop a turn between slices, so a large batch does not hold up other
     // requests (or look like an overloaded process to the load-shedding check).
     if (i > 0 && i % YIELD_EVERY === 0) {
-      yield (i > YIELD_EVERY ? ',' : '') + slice.join(',');
-      slice = [];
+      yield out.take();
       await yieldToLoop();
     }
     const r = runner.run(items[i], i, fields);
-    slice.push(r.json);
+    out.add(i > 0 ? ',' + r.json : r.json);
     counts[r.outcome]++;
   }
-  yield `${items.length > YIELD_EVERY && slice.length > 0 ? ',' : ''}${slice.join(',')}],"summary":${JSON.stringify(counts)}}`;
+  out.add(`],"summary":${JSON.stringify(counts)}}`);
+  yield out.take();
 }
 
 /** Reads NDJSON items from the stream and yields result lines, a chunk's worth at a time. */
@@ -247,7 +289,7 @@ async function* ndjsonResults(
   wantSummary: boolean,
   request: FastifyRequest,
   fields: readonly string[] | null,
-): AsyncGenerator<string> {
+): AsyncGenerator<string | Buffer> {
   const counts = { items: 0, pass: 0, fail: 0, error: 0 };
   let pending: Buffer[] = [];
   let pendingBytes = 0;
@@ -256,7 +298,7 @@ async function* ndjsonResults(
   let index = 0;
   let stopped: string | null = null;
 
-  const handleLine = (line: string, out: string[]): void => {
+  const handleLine = (line: string, out: Utf8Slices): void => {
     if (line.trim() === '') return;
     if (index >= config.BATCH_MAX_ITEMS) {
       stopped = stopLine(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; the stream was cut after item ${index - 1}.`);
@@ -270,7 +312,7 @@ async function* ndjsonResults(
     } catch {
       result = { json: JSON.stringify({ ...problem(400, 'malformed-body', 'Malformed item', `Line of item ${index} is not valid JSON.`), index }), outcome: 'error' };
     }
-    out.push(result.json);
+    out.add(result.json + '\n');
     counts.items++;
     counts[result.outcome]++;
     index++;
@@ -282,7 +324,7 @@ async function* ndjsonResults(
       stopped = stopLine(413, 'body-too-large', 'Stream too large', `At most ${config.BATCH_BODY_LIMIT} bytes per stream; the stream was cut after item ${index - 1}.`);
       break;
     }
-    const out: string[] = [];
+    const out = new Utf8Slices();
     let start = 0;
     for (;;) {
       const nl = chunk.indexOf(NEWLINE, start);
@@ -300,7 +342,7 @@ async function* ndjsonResults(
       }
       if (nl === -1) break;
       if (overlong) {
-        out.push(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }));
+        out.add(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }) + '\n');
         counts.items++;
         counts.error++;
         index++;
@@ -313,19 +355,19 @@ async function* ndjsonResults(
       if (stopped) break;
       start = nl + 1;
     }
-    if (out.length > 0) yield out.join('\n') + '\n';
+    if (!out.empty) yield out.take();
     if (stopped) break;
   }
   if (!stopped && (pendingBytes > 0 || overlong)) {
-    const out: string[] = [];
+    const out = new Utf8Slices();
     if (overlong) {
-      out.push(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }));
+      out.add(JSON.stringify({ ...problem(413, 'line-too-long', 'Item line too long', `Item ${index} is longer than ${config.BATCH_MAX_LINE} bytes.`), index }) + '\n');
       counts.items++;
       counts.error++;
     } else {
       handleLine(Buffer.concat(pending, pendingBytes).toString('utf8'), out);
     }
-    if (out.length > 0) yield out.join('\n') + '\n';
+    if (!out.empty) yield out.take();
   }
   if (stopped) {
     yield stopped;
