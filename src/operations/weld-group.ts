@@ -204,7 +204,7 @@ export const WeldGroupValuesSchema = Type.Object(
 export type WeldGroupAnswerValues = WeldGroupValues & { figure: string | null };
 
 /** Figures of the answers made by run(), keyed by the request object the route passes to render. */
-const figures = new WeakMap<object, WeldGroupFigure>();
+const figures = new WeakMap<object, () => WeldGroupFigure>();
 
 const nonZero = (v: number | undefined): boolean => v !== undefined && v !== 0;
 
@@ -311,11 +311,8 @@ export function queryLink(body: object, extra: Record<string, string>): string |
 }
 
 function render(answer: EnvelopeOf<WeldGroupAnswerValues>, body: WeldGroupBody): string {
-  let figure = figures.get(body);
-  if (!figure) {
-    figure = analyseWeldGroup(toWeldGroupRequest(body)).figure;
-  }
-  return renderWeldGroupSvg(answer, figure);
+  const figure = figures.get(body) ?? analyseWeldGroup(toWeldGroupRequest(body)).figure;
+  return renderWeldGroupSvg(answer, figure());
 }
 
 export const weldGroupEccentric: Operation<WeldGroupBody, WeldGroupAnswerValues> = {

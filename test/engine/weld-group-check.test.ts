@@ -300,6 +300,40 @@ describe('properties (fast-check)', () => {
     );
   });
 
+  it('sizing agrees with the forward check: the standard size carries the load and one step smaller does not (short welds included)', () => {
+    // The search scales trial capacities with the size where no segment is shorter than 4w
+    // (the property above); here each answer is checked by solving again at the sizes themselves.
+    fc.assert(
+      fc.property(
+        usualShape,
+        fc.double({ min: 0, max: 2, noNaN: true }),
+        fc.constantFrom<[number, number, number]>([0.6, -0.8, 0], [0, -1, 0], [1, 0, 0], [0.3, -0.4, 0.866]),
+        fc.double({ min: 2, max: 120, noNaN: true }),
+        (s, a, direction, demand) => {
+          const base = req({ shape: shape(s.name, s.height, s.height * s.ratio, s.rotation), load: load(direction, demand, { eccentricity: a * s.height }), estimateError: false, elements: 120 });
+          let r;
+          try {
+            r = analyseWeldGroup({ ...base, size: null }).result;
+          } catch (err) {
+            // nothing fits, or the group cannot carry such a load at any size (the forward check says the same)
+            const code = (err as EngineError).code;
+            if (code !== 'WELD_GROUP_SIZE_OUT_OF_RANGE') expect(codeOf(() => analyseWeldGroup({ ...base, size: 0.25 }))).toBe(code);
+            return;
+          }
+          const w = r.values.sizing!.standardSize;
+          const at = analyseWeldGroup({ ...base, size: w }).result;
+          expect(at.values.capacityAvailable).toBeGreaterThanOrEqual(demand * (1 - 1e-9));
+          // 1/8 in: Table J2.4's smallest size, where the search starts with no part given
+          if (w - 0.0625 >= 0.125 - 1e-12) {
+            const below = analyseWeldGroup({ ...base, size: w - 0.0625 }).result;
+            expect(below.values.capacityAvailable).toBeLessThan(demand * (1 + 1e-9));
+          }
+        },
+      ),
+      { numRuns: 60, seed: 20261202 },
+    );
+  });
+
   it('LRFD / ASD available strengths differ by phi·Omega = 1.5 (Table J2.5)', () => {
     const a = analyseWeldGroup(req({ method: 'LRFD' })).result;
     const b = analyseWeldGroup(req({ method: 'ASD' })).result;

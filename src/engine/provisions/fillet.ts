@@ -20,8 +20,9 @@ export function te(a: number, b: number): number {
  * @cite AISC 360-22 Eq. J2-5
  */
 export function kds(thetaDeg: number): number {
-  const s = Math.sin((thetaDeg * Math.PI) / 180);
-  return 1.0 + 0.5 * Math.pow(Math.abs(s), 1.5);
+  const s = Math.abs(Math.sin((thetaDeg * Math.PI) / 180));
+  // s^1.5 as s·√s: within an ulp of Math.pow(s, 1.5) at a fraction of its cost (the elastic method evaluates this 65 times per segment)
+  return 1.0 + 0.5 * s * Math.sqrt(s);
 }
 
 /**

@@ -121,7 +121,8 @@ export interface WeldGroupFigure {
 
 export interface WeldGroupAnswer {
   result: EngineResult<WeldGroupValues>;
-  figure: WeldGroupFigure;
+  /** The figure's data, made when asked for (only a drawing needs it: a JSON answer does not). */
+  figure: () => WeldGroupFigure;
 }
 
 /** Largest fillet the sizing tries (in the system's length unit). */
@@ -227,16 +228,35 @@ export function analyseWeldGroup(req: WeldGroupRequest): WeldGroupAnswer {
     if (c === counts) solved.set(s.size, { mesh, sol });
     return { mesh, sol };
   };
+  /**
+   * Where no segment is shorter than 4w, every element's throat is proportional to w, and so are
+   * the element law's deformation limits (Δu and Δm are multiples of w): the instantaneous centre
+   * stays where it is and the capacity is proportional to w, as it is under the concentric rules
+   * and the elastic method. The sizing search therefore scales its trial sizes from the first
+   * such capacity instead of solving again; the reported values come from solves at the final size.
+   */
+  let proportional: { size: number; nominal: number } | null = null;
+  const fullSizes = (s: Sized): boolean => {
+    for (const x of s.sizes) if (x !== s.size) return false;
+    return true;
+  };
   /** Nominal weld capacity for the load by the governing method (ICR in-plane capacity scales to the full load's magnitude: the load is in-plane there). */
   const governingNominal = (s: Sized): number => {
+    const full = fullSizes(s);
+    if (full && proportional) return proportional.nominal * (s.size / proportional.size);
+    let nominal: number;
     switch (method) {
       case 'icr':
-        return icrAt(s).sol.capacity;
+        nominal = icrAt(s).sol.capacity;
+        break;
       case 'concentric-rule':
-        return concentricStrength(segments, s.sizes, s.throats, dxy[0], dxy[1], FEXX, units).nominal;
+        nominal = concentricStrength(segments, s.sizes, s.throats, dxy[0], dxy[1], FEXX, units).nominal;
+        break;
       default:
-        return elasticAt(s).capacity;
+        nominal = elasticAt(s).capacity;
     }
+    if (full) proportional = { size: s.size, nominal };
+    return nominal;
   };
 
   // ---- sizing (the inverse): the smallest standard size whose strength covers the load ----
@@ -312,7 +332,10 @@ export function analyseWeldGroup(req: WeldGroupRequest): WeldGroupAnswer {
       perLength = segments.map(() => 0);
       for (let i = 0; i < mesh.n; i++) {
         const j = mesh.seg[i]!;
-        const q = Math.hypot(sol.forces[2 * i]!, sol.forces[2 * i + 1]!) / mesh.len[i]! / nominal;
+        const fx = sol.forces[2 * i]!;
+        const fy = sol.forces[2 * i + 1]!;
+        // finite, moderate forces: sqrt of the sum of squares (Math.hypot guards against overflow at several times the cost)
+        const q = Math.sqrt(fx * fx + fy * fy) / mesh.len[i]! / nominal;
         if (q > perLength[j]!) perLength[j] = q;
       }
       break;
@@ -452,11 +475,14 @@ export function analyseWeldGroup(req: WeldGroupRequest): WeldGroupAnswer {
     result.warnings.push(warn('BASE_METAL_GOVERNS', `${result.governing.code} of parts[${result.governing.part ?? 0}] governs over the weld metal.`));
   }
 
-  const figure: WeldGroupFigure = { segments: values.segments.map((s) => ({ from: s.from, to: s.to })), elements: [] };
-  if (icr) {
-    const { mesh, sol: so } = icr;
-    for (let i = 0; i < mesh.n; i++) figure.elements.push({ x: mesh.x[i]! + mesh.cx, y: mesh.y[i]! + mesh.cy, fx: so.forces[2 * i]!, fy: so.forces[2 * i + 1]! });
-  }
+  const figure = (): WeldGroupFigure => {
+    const f: WeldGroupFigure = { segments: values.segments.map((s) => ({ from: s.from, to: s.to })), elements: [] };
+    if (icr) {
+      const { mesh, sol: so } = icr;
+      for (let i = 0; i < mesh.n; i++) f.elements.push({ x: mesh.x[i]! + mesh.cx, y: mesh.y[i]! + mesh.cy, fx: so.forces[2 * i]!, fy: so.forces[2 * i + 1]! });
+    }
+    return f;
+  };
   return { result, figure };
 }
 
