@@ -5,11 +5,15 @@ const TICKS_PER_SECOND = 100; // USER_HZ on Linux
 
 /** User + system CPU time of a process, in microseconds (from /proc/<pid>/stat). */
 export function cpuMicros(pid: number): number {
+  const { user, system } = cpuSplit(pid);
+  return user + system;
+}
+
+/** A process's CPU time so far in user and in kernel mode, in microseconds. */
+export function cpuSplit(pid: number): { user: number; system: number } {
   const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
   const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-  const utime = Number(fields[11]);
-  const stime = Number(fields[12]);
-  return ((utime + stime) / TICKS_PER_SECOND) * 1e6;
+  return { user: (Number(fields[11]) / TICKS_PER_SECOND) * 1e6, system: (Number(fields[12]) / TICKS_PER_SECOND) * 1e6 };
 }
 
 /** Resident set size of a process, in MiB. */
