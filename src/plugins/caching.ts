@@ -5,7 +5,7 @@
  * lifetime is `private`: a shared cache must not hand one caller's answer to another who has
  * no key.
  */
-import { createHash } from 'node:crypto';
+import { hash } from 'node:crypto';
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
 import { appendHeaderToken } from './security.js';
@@ -20,7 +20,7 @@ export default fp(
       if (request.method !== 'GET' && request.method !== 'HEAD') return done(null, payload);
       if (reply.statusCode !== 200 || !request.url.startsWith('/v1/')) return done(null, payload);
       if (typeof payload !== 'string' && !Buffer.isBuffer(payload)) return done(null, payload);
-      const etag = `"${createHash('sha1').update(payload).digest('base64url')}"`;
+      const etag = `"${hash('sha1', payload, 'base64url')}"`;
       reply.header('etag', etag);
       reply.header('cache-control', cacheControl);
       reply.header('vary', appendHeaderToken(reply.getHeader('vary'), 'accept'));

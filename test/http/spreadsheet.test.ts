@@ -2,6 +2,7 @@
  * How spreadsheet clients use the service: short GET URLs, OPTIONS then HEAD then GET,
  * cacheable answers, one-value cells and range tables that fill a design table.
  */
+import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FastifyInstance } from 'fastify';
 import { app as build } from '../helpers.js';
@@ -66,6 +67,8 @@ describe('caching', () => {
     const b = await app.inject({ url: path });
     expect(a.headers.etag).toMatch(/^"[A-Za-z0-9_-]+"$/);
     expect(a.headers.etag).toBe(b.headers.etag);
+    // the SHA-1 of the body's bytes in base64url (RFC 4648 §5), by the incremental hash API
+    expect(a.headers.etag).toBe(`"${createHash('sha1').update(a.rawPayload).digest('base64url')}"`);
     expect(a.headers['cache-control']).toMatch(/max-age=\d+/);
   });
   it('a matching If-None-Match answers 304 with no body; another query has another ETag', async () => {
