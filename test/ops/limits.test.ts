@@ -77,6 +77,24 @@ describe('JSON depth', () => {
     );
   });
 
+  it('strings made of brackets, quotes and runs of backslashes never count (property)', () => {
+    const depthOf = (v: unknown): number =>
+      v !== null && typeof v === 'object' ? 1 + Math.max(0, ...Object.values(v as Record<string, unknown>).map(depthOf)) : 0;
+    const tricky = fc.string({ unit: fc.constantFrom('\\', '"', '[', '{', ']', '}', 'a'), maxLength: 12 });
+    const value = fc.letrec((tie) => ({
+      node: fc.oneof({ depthSize: 'small' }, tricky, fc.array(tie('node'), { maxLength: 3 }), fc.dictionary(tricky, tie('node'), { maxKeys: 3 })),
+    })).node;
+    fc.assert(
+      fc.property(value, fc.integer({ min: 0, max: 8 }), (v, max) => {
+        expect(nestsDeeperThan(JSON.stringify(v), max)).toBe(depthOf(v) > max);
+      }),
+      { numRuns: 1000 },
+    );
+    // Unterminated strings (refused by the parser afterwards) are not deeper than anything.
+    expect(nestsDeeperThan('[[["\\\\\\"[[[[[[[[[[', 3)).toBe(false);
+    expect(nestsDeeperThan('[[[[["ab', 3)).toBe(true);
+  });
+
   it('prototype poisoning is still refused by the framework parser behind the depth check', async () => {
     const res = await postJson('/v1/fillet/check', '{"method":"LRFD","__proto__":{"polluted":true}}');
     expect(res.statusCode).toBe(400);
