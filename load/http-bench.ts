@@ -16,6 +16,7 @@ import { join } from 'node:path';
 import http from 'node:http';
 import autocannon from 'autocannon';
 import { cpuMicros, cpuSplit, fmt, median, rssMiB, table } from './lib.js';
+import { eccentric, fillet, pjp } from './payloads.js';
 
 const args = process.argv.slice(2);
 const short = args.includes('--short');
@@ -83,24 +84,6 @@ interface Scenario {
   /** Items per request, for items/s. */
   items: number;
 }
-
-const fillet = {
-  method: 'LRFD', units: 'imperial', electrode: 'E70',
-  welds: [{ size: '5/16', length: 10, angle: 0, count: 2 }],
-  load: { force: 120 },
-  parts: [{ thickness: 0.5, steel: 'A572-50', faces: 2 }, { thickness: 0.75, steel: 'A992' }],
-};
-const pjp = {
-  method: 'LRFD', units: 'imperial', electrode: 'E70',
-  groove: { type: 'bevel-45', depth: 0.5, process: 'SMAW', position: 'vertical', sides: 1 },
-  length: 12, load: { case: 'tension-normal', force: 40 },
-  parts: [{ thickness: 0.75, steel: 'A992' }, { thickness: 1.0, steel: 'A572-50' }],
-};
-const eccentric = {
-  method: 'LRFD', units: 'imperial', electrode: 'E70', size: '1/4',
-  segments: [{ from: [0, 0], to: [4, 0] }, { from: [0, 0], to: [0, 10] }, { from: [0, 10], to: [4, 10] }],
-  load: { fx: 0, fy: -30, at: [10, 5] },
-};
 
 async function routeExists(port: number, path: string, body: object): Promise<boolean> {
   const res = await fetch(`http://127.0.0.1:${port}${path}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });

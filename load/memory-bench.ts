@@ -13,6 +13,7 @@
 import type { FastifyInstance } from 'fastify';
 import { buildApp } from '../src/app.js';
 import { fmt, table } from './lib.js';
+import { eccentric, fillet } from './payloads.js';
 
 const args = process.argv.slice(2);
 const short = args.includes('--short');
@@ -25,17 +26,6 @@ if (!gc) {
   process.exit(2);
 }
 
-const fillet = {
-  method: 'LRFD', units: 'imperial', electrode: 'E70',
-  welds: [{ size: '5/16', length: 10, angle: 0, count: 2 }],
-  load: { force: 120 },
-  parts: [{ thickness: 0.5, steel: 'A572-50', faces: 2 }, { thickness: 0.75, steel: 'A992' }],
-};
-const eccentric = {
-  method: 'LRFD', units: 'imperial', electrode: 'E70', size: '1/4',
-  segments: [{ from: [0, 0], to: [4, 0] }, { from: [0, 0], to: [0, 10] }, { from: [0, 10], to: [4, 10] }],
-  load: { fx: 0, fy: -30, at: [10, 5] },
-};
 const items = Array.from({ length: 1000 }, (_, i) => ({ kind: 'fillet', id: `WS-M${i}`, ...fillet }));
 const batchJson = JSON.stringify(items);
 const batchNdjson = items.map((it) => JSON.stringify(it)).join('\n');
