@@ -16,6 +16,7 @@ import { Readable } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fastJson from 'fast-json-stringify';
 import { lazyFunction } from '../../plugins/lazy-compile.js';
+import { withNullable } from '../../plugins/serializers.js';
 import { Type, type TSchema } from 'typebox';
 import type { Config } from '../../config.js';
 import type { Operation } from '../../operations/shared.js';
@@ -74,7 +75,7 @@ export function batchRunner(operations: readonly Operation[], defaultIds: 'any' 
     operations.map((op) => {
       const body = op.body as unknown as { properties: Record<string, unknown> };
       const withKind = { ...op.body, $id: undefined, properties: { ...body.properties, kind: { type: 'string' } } } as unknown as TSchema;
-      return [op.kind, { op, validate: bodyValidator(withKind), serialize: lazyFunction(() => fastJson(op.response as object) as (x: unknown) => string) }] as const;
+      return [op.kind, { op, validate: bodyValidator(withKind), serialize: lazyFunction(() => fastJson(withNullable(op.response) as object) as (x: unknown) => string) }] as const;
     }),
   );
   const BatchProblem = Type.Object(
