@@ -18,8 +18,17 @@ export function cpuSplit(pid: number): { user: number; system: number } {
 
 /** Resident set size of a process, in MiB. */
 export function rssMiB(pid: number): number {
+  return statusMiB(pid, 'VmRSS');
+}
+
+/** The most resident memory a process has held so far (its high-water mark), in MiB. */
+export function peakRssMiB(pid: number): number {
+  return statusMiB(pid, 'VmHWM');
+}
+
+function statusMiB(pid: number, field: 'VmRSS' | 'VmHWM'): number {
   const status = readFileSync(`/proc/${pid}/status`, 'utf8');
-  const m = /VmRSS:\s+(\d+) kB/.exec(status);
+  const m = new RegExp(`${field}:\\s+(\\d+) kB`).exec(status);
   return m ? Number(m[1]) / 1024 : Number.NaN;
 }
 
