@@ -41,9 +41,23 @@ export function withNullable(schema: unknown): unknown {
   return out;
 }
 
+/** withNullable once per schema object: the framework asks for a serializer factory in every plugin context (26 here), each with the same shared schemas. */
+const nullableCopies = new WeakMap<object, unknown>();
+function nullableCopy(schema: unknown): unknown {
+  if (typeof schema !== 'object' || schema === null) return schema;
+  let copy = nullableCopies.get(schema);
+  if (copy === undefined) nullableCopies.set(schema, (copy = withNullable(schema)));
+  return copy;
+}
+
 export function cachingSerializerFactory(externalSchemas: unknown, options: unknown): (route: RouteSchema) => Serializer {
-  const external = Object.fromEntries(Object.entries((externalSchemas ?? {}) as Record<string, unknown>).map(([k, v]) => [k, withNullable(v)]));
-  const compile = (SerializerSelector() as unknown as (e: unknown, o: unknown) => (r: RouteSchema) => Serializer)(external, options);
+  // Built on the first compile, not when the framework makes the factory (most contexts compile nothing).
+  let compile: ((r: RouteSchema) => Serializer) | undefined;
+  const compiler = (): ((r: RouteSchema) => Serializer) =>
+    (compile ??= (SerializerSelector() as unknown as (e: unknown, o: unknown) => (r: RouteSchema) => Serializer)(
+      Object.fromEntries(Object.entries((externalSchemas ?? {}) as Record<string, unknown>).map(([k, v]) => [k, nullableCopy(v)])),
+      options,
+    ));
   const cache = new Map<string, Serializer>();
   return (route) => {
     const schema = route.schema;
@@ -51,7 +65,7 @@ export function cachingSerializerFactory(externalSchemas: unknown, options: unkn
     const key = JSON.stringify(schema);
     let fn = cache.get(key);
     if (!fn) {
-      fn = lazyFunction(() => compile({ ...route, schema: withNullable(route.schema) as RouteSchema['schema'] }));
+      fn = lazyFunction(() => compiler()({ ...route, schema: nullableCopy(route.schema) as RouteSchema['schema'] }));
       cache.set(key, fn);
     }
     return fn;
