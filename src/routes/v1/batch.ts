@@ -214,6 +214,8 @@ const NEWLINE = 0x0a;
 const YIELD_EVERY = 256;
 const yieldToLoop = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
 
+const EMPTY = Buffer.alloc(0);
+
 /**
  * Answer text gathered as UTF-8 bytes, one result at a time, and taken as one Buffer per slice.
  * Each result is encoded as soon as it is made: a serialized answer is a tree of string pieces
@@ -225,19 +227,18 @@ const yieldToLoop = (): Promise<void> => new Promise((resolve) => setImmediate(r
  * NDJSON stream of full answers 29-32 against 25-28 µs per line.
  */
 export class Utf8Slices {
-  private buf: Buffer;
+  private buf: Buffer = EMPTY;
   private used = 0;
 
-  /** `capacity`: room for a slice of compact results; grows (doubling) for full answers and keeps that size. */
-  constructor(private capacity = 64 * 1024) {
-    this.buf = Buffer.allocUnsafe(capacity);
-  }
+  /** `capacity`: room for a slice of compact results; a slice that outgrows it doubles it, and the next slices start at that size. */
+  constructor(private capacity = 64 * 1024) {}
 
   add(text: string): void {
     // UTF-8 takes at most 3 bytes per UTF-16 unit, so this much room always holds the text.
     const room = text.length * 3;
     if (this.used + room > this.buf.length) {
-      this.capacity = Math.max(this.capacity * 2, this.used + room);
+      // A slice's buffer is made on its first text (none is left over after the last slice).
+      this.capacity = this.buf.length === 0 ? Math.max(this.capacity, room) : Math.max(this.capacity * 2, this.used + room);
       const bigger = Buffer.allocUnsafe(this.capacity);
       this.buf.copy(bigger, 0, 0, this.used);
       this.buf = bigger;
@@ -252,7 +253,7 @@ export class Utf8Slices {
   /** The bytes gathered so far; the next ones go into a fresh buffer (the socket may still be writing these). */
   take(): Buffer {
     const b = this.buf.subarray(0, this.used);
-    this.buf = Buffer.allocUnsafe(this.capacity);
+    this.buf = EMPTY;
     this.used = 0;
     return b;
   }
