@@ -262,7 +262,8 @@ async function main(): Promise<void> {
   }
 
   const rows = [['scenario', 'svc req/s', 'base req/s', 'ratio', 'svc µs CPU/req', '(kernel)', 'base µs CPU/req', '(kernel)', 'CPU ratio', 'p50 ms', 'p99 ms', 'errors', 'items/s']];
-  const verdicts: Array<[string, boolean, string]> = [];
+  /** What, whether it passes (null: a figure for information, no target), and the figure. */
+  const verdicts: Array<[string, boolean | null, string]> = [];
   for (const [name, { base, svc }] of results) {
     const ratio = median(svc.map((r, i) => r.rps / base[i]!.rps));
     const cpuRatio = median(svc.map((r, i) => r.cpuPerReq / base[i]!.cpuPerReq));
@@ -308,7 +309,7 @@ async function main(): Promise<void> {
     // samples are printed too, and `npm run bench:memory` reads the heap after a full collection.
     const g = peakByRound[2]! / peakByRound[1]! - 1;
     verdicts.push(['no resident memory growth between rounds 2 and 3 (high-water mark, < 5 %)', g < 0.05, `${fmt(peakByRound[1]!)} -> ${fmt(peakByRound[2]!)} MiB, ${fmt(g * 100)} %`]);
-    verdicts.push(['  (resident memory at the end of each round, for information)', true, rssByRound.map((x) => `${fmt(x)} MiB`).join(', ')]);
+    verdicts.push(['resident memory at the end of each round', null, rssByRound.map((x) => `${fmt(x)} MiB`).join(', ')]);
   }
 
   console.log(`\nThroatline HTTP benchmark: ${ROUNDS} round(s) × ${DURATION} s per scenario, ${CONNECTIONS} connections, ` +
@@ -316,7 +317,7 @@ async function main(): Promise<void> {
   console.log(table(rows));
   console.log('(kernel): the part of the CPU per request spent in the kernel. Over loopback the server\'s socket write also wakes the load generator when it sleeps, which it does while waiting for a slower server: on a virtual machine such a wake-up costs a server tens of µs that a faster one, whose client is still busy, mostly does not pay.');
   console.log('');
-  for (const [what, ok, figure] of verdicts) console.log(`${short || what.startsWith(' ') ? 'INFO' : ok ? 'PASS' : 'FAIL'}  ${what.trim()}: ${figure}`);
+  for (const [what, ok, figure] of verdicts) console.log(`${short || ok === null ? 'INFO' : ok ? 'PASS' : 'FAIL'}  ${what}: ${figure}`);
   const filletRuns = results.get('fillet check');
   if (filletRuns && sameAnswer.length === filletRuns.svc.length && sameAnswer.length > 0) {
     const r = median(filletRuns.svc.map((x, i) => x.rps / sameAnswer[i]!.rps));

@@ -34,7 +34,8 @@ describe('the single-file build', () => {
   });
 
   it('answers a fillet check with the same figures as the sources', async () => {
-    // Two 5/16 in. E70 fillets, 10 in. each, transverse angle 0: hand arithmetic,
+    // Two 5/16 in. E70 fillets, 10 in. each, loaded along their axis (angle 0, no directional
+    // increase); hand arithmetic with AISC 360-22 Eq. J2-4 (from memory):
     // Rn = 0.60 × 70 × (0.3125 × 0.7071) × 20 = 185.6 kips; φRn = 0.75 × 185.6 = 139.2 kips.
     const r = await send({
       port: server.port,
