@@ -34,6 +34,12 @@ const ONLY = onlyIdx >= 0 ? String(args[onlyIdx + 1]).toLowerCase() : undefined;
 /** The compact result a pipeline usually needs: the verdict and what governs. */
 const COMPACT = 'status,utilization,governing.code';
 const BATCH_ITEMS = 1_000;
+/**
+ * `--work 5,20,50`: µs of arithmetic per request for the baseline's third reference route, a
+ * stand-in for a route's own work (how much a route doing that much costs the server here).
+ */
+const workIdx = args.indexOf('--work');
+const WORK_US = (workIdx >= 0 ? String(args[workIdx + 1]) : '5,20,50').split(',').filter(Boolean).map(Number);
 const hasTaskset = spawnSync('taskset', ['-V']).status === 0;
 
 // Pin this load generator to core 1 by re-running it under taskset.
@@ -200,7 +206,7 @@ async function main(): Promise<void> {
   const answerRes = await fetch(`http://127.0.0.1:${service.port}/v1/fillet/check`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(fillet) });
   const answerText = await answerRes.text();
   writeFileSync(answerFile, answerText);
-  const baseline = await start('baseline', 'load/baseline-server.mjs', 3901, '/bench', { BENCH_ANSWER_FILE: answerFile });
+  const baseline = await start('baseline', 'load/baseline-server.mjs', 3901, '/bench', { BENCH_ANSWER_FILE: answerFile, BENCH_WORK_US: WORK_US.join(',') });
 
   const filletQuery =
     '/v1/fillet/check?method=LRFD&electrode=E70&welds.0.size=5/16&welds.0.length=10&welds.0.count=2&load.force=120' +
@@ -229,6 +235,8 @@ async function main(): Promise<void> {
   const results = new Map<string, { base: Run[]; svc: Run[] }>();
   /** The fillet scenario against the baseline sending the same answer as a constant. */
   const sameAnswer: Run[] = [];
+  /** The bare route plus a fixed amount of arithmetic, by µs of arithmetic. */
+  const withWork = new Map<number, Run[]>(WORK_US.map((us) => [us, []]));
   const rssByRound: number[] = [];
   /** The resident high-water mark at the end of each round: a round that needs more memory than any before raises it. */
   const peakByRound: number[] = [];
@@ -248,7 +256,10 @@ async function main(): Promise<void> {
       const entry = results.get(s.name) ?? { base: [], svc: [] };
       const baseScenario = { ...s, path: s.method === 'GET' ? '/bench' : '/bench' };
       entry.base.push(await cannon(baseline, baseScenario));
-      if (s.name === 'fillet check') sameAnswer.push(await cannon(baseline, { ...s, path: '/bench-answer' }));
+      if (s.name === 'fillet check') {
+        sameAnswer.push(await cannon(baseline, { ...s, path: '/bench-answer' }));
+        for (const [us, runs] of withWork) runs.push(await cannon(baseline, { ...s, path: `/bench-work-${us}` }));
+      }
       entry.svc.push(await cannon(service, s));
       results.set(s.name, entry);
     }
@@ -315,7 +326,7 @@ async function main(): Promise<void> {
   console.log(`\nThroatline HTTP benchmark: ${ROUNDS} round(s) × ${DURATION} s per scenario, ${CONNECTIONS} connections, ` +
     `${hasTaskset ? 'server on core 0, load on core 1' : 'no taskset: cores not pinned'}; medians over rounds; ratios against the bare Fastify baseline given the same payload.\n`);
   console.log(table(rows));
-  console.log('(kernel): the part of the CPU per request spent in the kernel. Over loopback the server\'s socket write also wakes the load generator when it sleeps, which it does while waiting for a slower server: on a virtual machine such a wake-up costs a server tens of µs that a faster one, whose client is still busy, mostly does not pay.');
+  console.log('(kernel): the part of the CPU per request spent in the kernel. Over loopback the server\'s socket write also wakes the load generator when it sleeps, which it does while waiting for a slower server: on a virtual machine such a wake-up costs a server tens of µs that a faster one, whose client is still busy, mostly does not pay. The lines "plus N µs of arithmetic" show what that does to a route with N µs of its own work.');
   console.log('');
   for (const [what, ok, figure] of verdicts) console.log(`${short || ok === null ? 'INFO' : ok ? 'PASS' : 'FAIL'}  ${what}: ${figure}`);
   const filletRuns = results.get('fillet check');
@@ -326,6 +337,17 @@ async function main(): Promise<void> {
       `INFO  fillet route against the baseline sending the same ${answerText.length}-byte answer as a constant ` +
         `(${fmt(median(sameAnswer.map((x) => x.rps)))} req/s, ${fmt(median(sameAnswer.map((x) => x.cpuPerReq)))} µs CPU/req): ${fmt(r)} × throughput, ${fmt(c)} × CPU per request`,
     );
+  }
+  if (filletRuns) {
+    const bare = median(filletRuns.base.map((x) => x.cpuPerReq));
+    for (const [us, runs] of withWork) {
+      if (runs.length === 0) continue;
+      const cpu = median(runs.map((x) => x.cpuPerReq));
+      console.log(
+        `INFO  the baseline route plus ${us} µs of arithmetic per request: ${fmt(median(runs.map((x) => x.rps)))} req/s, ` +
+          `${fmt(cpu)} µs CPU/req (${fmt(median(runs.map((x) => x.sysPerReq)))} in the kernel), ${fmt(cpu / bare)} × the bare route's CPU`,
+      );
+    }
   }
   rmSync(answerFile, { force: true });
 
