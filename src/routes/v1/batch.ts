@@ -262,9 +262,10 @@ export class Utf8Slices {
 /**
  * The JSON answer to an array of items, streamed a slice of results at a time: `{"results":[`,
  * the results, then `],"summary":{...}}`, so that a large batch neither holds every answer
- * until the last item is done nor keeps the event loop for the whole batch.
+ * until the last item is done nor keeps the event loop for the whole batch. The array (the
+ * request's parsed body) is emptied as its items are answered.
  */
-async function* jsonResults(items: readonly unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<Buffer> {
+async function* jsonResults(items: unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<Buffer> {
   const counts = { items: items.length, pass: 0, fail: 0, error: 0 };
   const out = new Utf8Slices();
   out.add('{"results":[');
@@ -276,6 +277,10 @@ async function* jsonResults(items: readonly unknown[], runner: Runner, fields: r
       await yieldToLoop();
     }
     const r = runner.run(items[i], i, fields);
+    // Let the answered item go: the parsed body is most of what survives each young-generation
+    // collection while a batch runs, and is copied on every one (compact 1,000-item batches:
+    // 9.1-9.6 -> 8.4-9.1 ms CPU per request, alternating runs).
+    items[i] = undefined;
     out.add(i > 0 ? ',' + r.json : r.json);
     counts[r.outcome]++;
   }
