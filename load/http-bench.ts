@@ -292,6 +292,8 @@ async function main(): Promise<void> {
     if (name === `JSON batch ${BATCH_ITEMS} fillet`) {
       const ips = median(svc.map((r) => r.itemsPerSec));
       verdicts.push(['JSON batch, full answers, >= 400,000 fillet items/s', ips >= 400_000, fmt(ips)]);
+      // What a server that only parses the same body (and answers a constant) reaches here.
+      verdicts.push([`the bare baseline parsing the same ${BATCH_ITEMS}-item body and answering a constant, items/s`, null, fmt(median(base.map((r) => r.itemsPerSec)))]);
     }
     if (name === `JSON batch ${BATCH_ITEMS} fillet, compact`) {
       const ips = median(svc.map((r) => r.itemsPerSec));
