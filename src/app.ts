@@ -32,6 +32,7 @@ import { registerCheck } from './routes/v1/checks.js';
 import catalogRoutes from './routes/v1/catalog.js';
 import healthRoutes, { type ReadinessState } from './routes/health.js';
 import batchRoutes from './routes/v1/batch.js';
+import { Lanes } from './routes/v1/lanes.js';
 
 export interface AppOptions {
   /** Settings over the defaults; validated like the environment (a bad one throws ConfigError). */
@@ -64,6 +65,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const keys = new KeyRing(apiKeyHashes(config));
   const metrics = new ServiceMetrics();
   const operations = OPERATIONS.map((op) => instrument(op, metrics));
+  const lanes = new Lanes(config.BATCH_CONCURRENCY);
 
   const app = Fastify({
     ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: withRedaction(options.logger) }),
@@ -103,11 +105,17 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   await app.register(openapi, { docs: config.DOCS });
   await app.register(healthRoutes, { readiness, overloaded: () => monitor.overloaded });
   if (config.METRICS) {
-    metricsRoute(app, metrics, () => ({ ready: readiness.ready && !monitor.overloaded, overloaded: monitor.overloaded, eventLoopDelayMs: monitor.delayMs }));
+    metricsRoute(app, metrics, () => ({
+      ready: readiness.ready && !monitor.overloaded,
+      overloaded: monitor.overloaded,
+      eventLoopDelayMs: monitor.delayMs,
+      batchesAnswering: lanes.busy,
+      batchesWaiting: lanes.waiting,
+    }));
   }
   await app.register(catalogRoutes);
   for (const op of operations) registerCheck(app, op, { chromiumPath: config.CHROMIUM_PATH });
-  await app.register(batchRoutes, { config, operations });
+  await app.register(batchRoutes, { config, operations, lanes });
   // Some spreadsheet web functions probe a URL with OPTIONS, then HEAD, then GET, and give up
   // when OPTIONS fails: answer it on every path with the methods the service uses.
   app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>

@@ -47,6 +47,11 @@ export function nestsDeeperThan(text: string, max: number): boolean {
   return false;
 }
 
+/** The answer to a body that nests deeper than `max`. */
+export function tooDeep(max: number): ProblemError {
+  return new ProblemError(problem(400, 'too-deep', 'Body nested too deeply', `Arrays and objects in the body nest deeper than ${max} levels, the most this service reads.`));
+}
+
 export default fp(
   async function jsonBody(app: FastifyInstance, opts: { maxDepth: number }) {
     const parse = app.getDefaultJsonParser('error', 'error');
@@ -54,7 +59,7 @@ export default fp(
     app.addContentTypeParser('application/json', { parseAs: 'string' }, (request, body, done) => {
       const text = typeof body === 'string' ? body : body.toString('utf8');
       if (nestsDeeperThan(text, opts.maxDepth)) {
-        done(new ProblemError(problem(400, 'too-deep', 'Body nested too deeply', `Arrays and objects in the body nest deeper than ${opts.maxDepth} levels, the most this service reads.`)), undefined);
+        done(tooDeep(opts.maxDepth), undefined);
         return;
       }
       parse(request, text, done);

@@ -10,7 +10,9 @@
  *   batch or a range table, by weld family, pass/fail/refused and the governing code (for a
  *   refused one, the error code; "none" when nothing governs, e.g. no load given);
  * - throatline_event_loop_delay_seconds and throatline_overloaded: what load shedding sees;
- * - throatline_ready: 1 while /readyz answers 200.
+ * - throatline_ready: 1 while /readyz answers 200;
+ * - throatline_batches_answering and throatline_batches_waiting: JSON-array batches holding a
+ *   lane and waiting for one (routes/v1/lanes.ts).
  * Per process (registered once): prom-client's default metrics: process CPU and memory
  * (process_resident_memory_bytes, nodejs_heap_size_used_bytes, ...), event-loop delay
  * (nodejs_eventloop_lag_seconds, nodejs_eventloop_lag_p99_seconds, ...) and GC.
@@ -178,6 +180,8 @@ export class ServiceMetrics {
   readonly eventLoopDelay = new Gauge({ name: 'throatline_event_loop_delay_seconds', help: 'Mean event-loop delay over the last sampling window, as load shedding sees it.', registers: [this.registry] });
   readonly overloaded = new Gauge({ name: 'throatline_overloaded', help: '1 while new work is shed because the event loop lags.', registers: [this.registry] });
   readonly ready = new Gauge({ name: 'throatline_ready', help: '1 while /readyz answers 200.', registers: [this.registry] });
+  readonly batchesAnswering = new Gauge({ name: 'throatline_batches_answering', help: 'JSON-array batches being answered (at most BATCH_CONCURRENCY).', registers: [this.registry] });
+  readonly batchesWaiting = new Gauge({ name: 'throatline_batches_waiting', help: 'JSON-array batches received and waiting for their turn.', registers: [this.registry] });
 
   /** Counts one answered calculation. */
   calculation(kind: string, answer: Pick<Envelope<unknown>, 'status' | 'governing'>): void {
@@ -226,6 +230,8 @@ export interface MetricGauges {
   ready: boolean;
   overloaded: boolean;
   eventLoopDelayMs: number;
+  batchesAnswering: number;
+  batchesWaiting: number;
 }
 
 /** Registers GET /metrics; `gauges` is read at each scrape. */
@@ -244,6 +250,8 @@ export function metricsRoute(app: FastifyInstance, metrics: ServiceMetrics, gaug
       metrics.ready.set(g.ready ? 1 : 0);
       metrics.overloaded.set(g.overloaded ? 1 : 0);
       metrics.eventLoopDelay.set(g.eventLoopDelayMs / 1000);
+      metrics.batchesAnswering.set(g.batchesAnswering);
+      metrics.batchesWaiting.set(g.batchesWaiting);
       return reply.type(METRICS_CONTENT_TYPE).send(await metrics.text());
     },
   });

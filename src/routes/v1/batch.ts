@@ -27,6 +27,8 @@ import { Problem, StringEnum } from '../../schemas/common.js';
 import { pickValue } from '../../formats.js';
 import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
 import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
+import { nestsDeeperThan, tooDeep } from '../../plugins/json-body.js';
+import { Lanes, STALL_MS, type Lease } from './lanes.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -129,7 +131,15 @@ const Summary = Type.Object(
   { additionalProperties: false },
 );
 
-export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[] }): Promise<void> {
+/**
+ * A JSON batch body as received: its text, checked for depth, parsed when the request's turn
+ * comes (routes/v1/lanes.ts).
+ */
+class BatchText {
+  constructor(readonly text: string) {}
+}
+
+export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes?: Lanes }): Promise<void> {
   const { config, operations } = opts;
   // One set of compiled validators and serializers serves both id formats.
   const shared = batchRunner(operations);
@@ -138,6 +148,19 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
     ifc: { run: (item, index, fields) => shared.run(item, index, fields, 'ifc') },
   };
   const kinds = operations.map((o) => o.kind);
+
+  const lanes = opts.lanes ?? new Lanes(config.BATCH_CONCURRENCY);
+  // JSON bodies of this route are kept as text until the request's turn: the same depth check as
+  // every JSON body now, the framework's parser (and its errors) then.
+  const parseJson = app.getDefaultJsonParser('error', 'error');
+  app.removeContentTypeParser('application/json');
+  app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
+    const text = body as string;
+    if (nestsDeeperThan(text, config.JSON_MAX_DEPTH)) done(tooDeep(config.JSON_MAX_DEPTH), undefined);
+    else done(null, new BatchText(text));
+  });
+  const parseTurn = (request: FastifyRequest, text: string): Promise<unknown> =>
+    new Promise((resolve, reject) => parseJson(request, text, (err, value) => (err ? reject(err) : resolve(value))));
 
   // NDJSON bodies reach the handler as the raw request stream.
   app.addContentTypeParser('application/x-ndjson', (_request, payload, done) => done(null, payload));
@@ -184,19 +207,28 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
           return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', `/fields: ${bad !== undefined ? `"${bad}" is not a dotted field name` : `give 1 to ${MAX_FIELDS} field names`}.`, { errors: [{ pointer: '/fields', detail: 'a comma list of dotted answer fields, e.g. status,utilization,governing.code' }] }));
         }
       }
-      const body = request.body;
+      let body = request.body;
+      let lease: Lease | null = null;
+      if (body instanceof BatchText) {
+        // Its turn; null when the client left, or the deadline answered it, while it waited.
+        lease = await lanes.enter(reply.raw);
+        if (lease === null) return reply;
+        body = await parseTurn(request, body.text);
+      }
       if (q.format === 'html' || (q.format === undefined && prefersHtml(request.headers.accept))) {
         if (!Array.isArray(body)) return sendProblem(reply, problem(400, 'invalid-request', 'Invalid request', 'format=html answers a JSON array of items, not NDJSON.', { errors: [{ pointer: '', detail: 'must be an array' }] }));
         if (body.length > MAX_HTML_BATCH_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large for one page', `format=html puts every item's sheet on one page: at most ${MAX_HTML_BATCH_ITEMS} items, this batch has ${body.length}. Split it, or ask for JSON or NDJSON.`));
         }
-        return reply.type(HTML_TYPE).send(batchHtml(body, (item, i) => runner.run(item, i, null), operations));
+        const page = batchHtml(body, (item, i) => runner.run(item, i, null), operations);
+        lease?.release();
+        return reply.type(HTML_TYPE).send(page);
       }
       if (Array.isArray(body)) {
         if (body.length > config.BATCH_MAX_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));
         }
-        return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields)));
+        return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields, lease)));
       }
       if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {
         const wantSummary = q.summary === true || q.summary === 'true';
@@ -265,27 +297,37 @@ export class Utf8Slices {
  * until the last item is done nor keeps the event loop for the whole batch. The array (the
  * request's parsed body) is emptied as its items are answered.
  */
-async function* jsonResults(items: unknown[], runner: Runner, fields: readonly string[] | null): AsyncGenerator<Buffer> {
+async function* jsonResults(items: unknown[], runner: Runner, fields: readonly string[] | null, lease: Lease | null): AsyncGenerator<Buffer> {
   const counts = { items: items.length, pass: 0, fail: 0, error: 0 };
   const out = new Utf8Slices();
   out.add('{"results":[');
-  for (let i = 0; i < items.length; i++) {
-    // Give the event loop a turn between slices, so a large batch does not hold up other
-    // requests (or look like an overloaded process to the load-shedding check).
-    if (i > 0 && i % YIELD_EVERY === 0) {
-      yield out.take();
-      await yieldToLoop();
+  try {
+    for (let i = 0; i < items.length; i++) {
+      // Give the event loop a turn between slices, so a large batch does not hold up other
+      // requests (or look like an overloaded process to the load-shedding check).
+      if (i > 0 && i % YIELD_EVERY === 0) {
+        // A slice not taken within STALL_MS: the client reads slowly; let another batch compute.
+        const stall = lease ? setTimeout(() => lease.release(), STALL_MS) : undefined;
+        yield out.take();
+        clearTimeout(stall);
+        if (lease !== null && !(await lease.reenter())) return;
+        await yieldToLoop();
+      }
+      const r = runner.run(items[i], i, fields);
+      // Let the answered item go: the parsed body is most of what survives each young-generation
+      // collection while a batch runs, and is copied on every one (compact 1,000-item batches:
+      // 9.1-9.6 -> 8.4-9.1 ms CPU per request, alternating runs).
+      items[i] = undefined;
+      out.add(i > 0 ? ',' + r.json : r.json);
+      counts[r.outcome]++;
     }
-    const r = runner.run(items[i], i, fields);
-    // Let the answered item go: the parsed body is most of what survives each young-generation
-    // collection while a batch runs, and is copied on every one (compact 1,000-item batches:
-    // 9.1-9.6 -> 8.4-9.1 ms CPU per request, alternating runs).
-    items[i] = undefined;
-    out.add(i > 0 ? ',' + r.json : r.json);
-    counts[r.outcome]++;
+    out.add(`],"summary":${JSON.stringify(counts)}}`);
+    // Everything is computed: the rest is the client's reading.
+    lease?.release();
+    yield out.take();
+  } finally {
+    lease?.release();
   }
-  out.add(`],"summary":${JSON.stringify(counts)}}`);
-  yield out.take();
 }
 
 /** Reads NDJSON items from the stream and yields result lines, a chunk's worth at a time. */
