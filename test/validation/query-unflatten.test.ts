@@ -44,6 +44,54 @@ describe('unflatten', () => {
   });
 });
 
+describe('unflatten against flattening', () => {
+  // Any nested request of objects and arrays (none empty: an empty one has no query name) with
+  // text leaves, flattened here to dotted names, is built back exactly.
+  type Tree = string | Tree[] | { [k: string]: Tree };
+  const name = fc.stringMatching(/^[A-Za-z][A-Za-z0-9_-]{0,8}$/).filter((n) => !['constructor', 'prototype'].includes(n));
+  const { tree } = fc.letrec<{ tree: Tree }>((tie) => ({
+    tree: fc.oneof(
+      { depthSize: 'small', withCrossShrink: true },
+      fc.string({ maxLength: 6 }),
+      fc.array(tie('tree'), { minLength: 1, maxLength: 4 }),
+      fc.dictionary(name, tie('tree'), { minKeys: 1, maxKeys: 4 }),
+    ),
+  }));
+  const root = fc.dictionary(name, tree, { minKeys: 1, maxKeys: 5 });
+
+  function flatten(node: Tree, prefix: string, out: Record<string, string>): void {
+    if (typeof node === 'string') out[prefix] = node;
+    else if (Array.isArray(node)) node.forEach((v, i) => flatten(v, `${prefix}.${i}`, out));
+    else for (const [k, v] of Object.entries(node)) flatten(v, `${prefix}.${k}`, out);
+  }
+
+  it('rebuilds any nested request from its dotted names (property)', () => {
+    fc.assert(
+      fc.property(root, (request) => {
+        const query: Record<string, string> = {};
+        for (const [k, v] of Object.entries(request)) flatten(v, k, query);
+        expect(unflatten(query)).toEqual(request);
+      }),
+      { numRuns: 500 },
+    );
+  });
+
+  it('refuses names outside the rules, each by its pointer (hand-listed cases)', () => {
+    const cases: Array<[Record<string, string>, string]> = [
+      [{ '1abc': 'x' }, '/1abc'],
+      [{ 'a.b c': 'x' }, '/a/b c'],
+      [{ [`a${'b'.repeat(64)}`]: 'x' }, `/a${'b'.repeat(64)}`],
+      [{ 'welds.': 'x' }, '/welds/'],
+      [{ 'welds.1000.size': 'x' }, '/welds/1000/size'],
+      [{ 'a/b.c~d': 'x' }, '/a~1b/c~0d'],
+      [{ 'welds.0': 'x', 'welds.a': 'y' }, '/welds/a'],
+    ];
+    for (const [query, pointer] of cases) expect(thrown(() => unflatten(query), RequestFieldError).pointer, JSON.stringify(query)).toBe(pointer);
+    // 64 characters is the longest name; "_" and "-" are allowed after the first letter.
+    expect(unflatten({ [`a${'b'.repeat(63)}`]: 'x', 'x_y-z': 'w' })).toEqual({ [`a${'b'.repeat(63)}`]: 'x', 'x_y-z': 'w' });
+  });
+});
+
 describe('coerce', () => {
   const schema = {
     type: 'object',
