@@ -13,7 +13,8 @@ const answer = process.env.BENCH_ANSWER_FILE ? readFileSync(process.env.BENCH_AN
 app.post('/bench-answer', async (_request, reply) => reply.type('application/json; charset=utf-8').send(answer));
 // A third reference: the bare route plus a fixed amount of arithmetic per request (a stand-in for
 // any route's own work), one route per level in BENCH_WORK_US (µs, e.g. "5,20"). The loop is
-// calibrated here, at start-up, by timing it.
+// calibrated here, at start-up, on this process's own CPU time (the service may be busy on the
+// same core at that moment, which would skew a wall-clock calibration).
 let sink = 0;
 const arithmetic = (n) => {
   let x = 0;
@@ -22,10 +23,11 @@ const arithmetic = (n) => {
 };
 const levels = (process.env.BENCH_WORK_US ?? '').split(',').filter(Boolean).map(Number);
 if (levels.length > 0) {
-  for (let i = 0; i < 200; i++) arithmetic(10_000);
-  const t0 = process.hrtime.bigint();
   for (let i = 0; i < 400; i++) arithmetic(10_000);
-  const nsPerStep = Number(process.hrtime.bigint() - t0) / 4_000_000;
+  const c0 = process.cpuUsage();
+  for (let i = 0; i < 2000; i++) arithmetic(10_000);
+  const c = process.cpuUsage(c0);
+  const nsPerStep = ((c.user + c.system) * 1000) / 20_000_000;
   for (const us of levels) {
     const steps = Math.round((us * 1000) / nsPerStep);
     app.post(`/bench-work-${us}`, async () => {
