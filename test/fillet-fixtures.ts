@@ -26,3 +26,20 @@ export function req(over: Partial<FilletRequest> = {}): FilletRequest {
     ...over,
   };
 }
+
+/**
+ * The POST body the HTTP tests share: two 5/16 in E70 fillets 10 in long (20 in in all) joining a
+ * 1/2 in A572-50 plate welded on both faces to a 3/4 in A992 part, 120 kips along the welds, LRFD.
+ * By hand (AISC 360-22 Eq. J2-4, from memory): 0.75 × 0.6 × 70 × 0.707 × 5/16 × 20 = 139.2 kips
+ * available, so it passes.
+ */
+export const FILLET_BODY = {
+  method: 'LRFD',
+  electrode: 'E70',
+  welds: [{ size: '5/16', length: 10, count: 2 }],
+  load: { force: 120 },
+  parts: [
+    { thickness: 0.5, steel: 'A572-50', faces: 2 },
+    { thickness: 0.75, steel: 'A992' },
+  ],
+} as const;

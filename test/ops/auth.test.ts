@@ -9,6 +9,7 @@ import { Writable } from 'node:stream';
 import pino from 'pino';
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from 'vitest';
 import type { FastifyInstance } from 'fastify';
+import { FILLET_BODY } from '../fillet-fixtures.js';
 
 vi.mock('node:crypto', async (importOriginal) => {
   const real = await importOriginal<typeof import('node:crypto')>();
@@ -24,16 +25,7 @@ const KEY_PIPELINE = 'ws-pipeline-Hc3Jd8sKw1Ye6Ua5';
 const sha256 = (s: string) => createHash('sha256').update(s, 'utf8').digest('hex');
 const HASHES = `${sha256(KEY_DESK)},${sha256(KEY_PIPELINE)}`;
 
-const FILLET = {
-  method: 'LRFD',
-  electrode: 'E70',
-  welds: [{ size: '5/16', length: 10, count: 2 }],
-  load: { force: 120 },
-  parts: [
-    { thickness: 0.5, steel: 'A572-50', faces: 2 },
-    { thickness: 0.75, steel: 'A992' },
-  ],
-};
+const FILLET = FILLET_BODY;
 
 let app: FastifyInstance;
 beforeAll(async () => {

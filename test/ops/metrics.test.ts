@@ -6,6 +6,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FastifyInstance } from 'fastify';
 import { buildApp } from '../../src/app.js';
+import { FILLET_BODY } from '../fillet-fixtures.js';
 
 interface Sample {
   name: string;
@@ -40,16 +41,7 @@ function value(samples: Sample[], name: string, labels: Record<string, string>):
   return samples.find((s) => s.name === name && Object.entries(labels).every(([k, v]) => s.labels[k] === v))?.value;
 }
 
-const FILLET = {
-  method: 'LRFD',
-  electrode: 'E70',
-  welds: [{ size: '5/16', length: 10, count: 2 }],
-  load: { force: 120 },
-  parts: [
-    { thickness: 0.5, steel: 'A572-50', faces: 2 },
-    { thickness: 0.75, steel: 'A992' },
-  ],
-};
+const FILLET = FILLET_BODY;
 
 let app: FastifyInstance;
 let scrape: { samples: Sample[]; types: Map<string, string> };
