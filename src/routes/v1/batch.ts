@@ -3,7 +3,8 @@
  *
  * - application/json: an array of items `{ kind, id?, ...inputs }`; answers
  *   `{ results: [...], summary }` in the same order. Each item stands alone: a bad item gets a
- *   problem document in its slot and the others are answered.
+ *   problem document in its slot and the others are answered. Such batches are computed
+ *   BATCH_CONCURRENCY at a time, each body parsed when its turn comes (./lanes.ts).
  * - application/x-ndjson: one item per line in, one result per line out, streamed both ways, so
  *   the first result leaves before the last item arrives. The framework's body limit does not
  *   cover a raw stream, so the item, line and byte limits are counted here; past a limit the
