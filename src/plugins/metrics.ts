@@ -159,11 +159,36 @@ export class HistogramFamily {
       s.count = 0;
     }
   }
+
+  /** The number of observations per label combination, in a counter's shape. */
+  counts(): ExportedValue[] {
+    return this.series.map((s) => ({ labels: s.labels, value: s.count }));
+  }
+}
+
+/**
+ * A counter whose value per label combination is a histogram family's number of observations:
+ * the answers counter is the latency histogram's `_count`, so it is kept once and written twice
+ * (one label lookup per answer, not two).
+ */
+export class ObservationCount {
+  readonly type = 'counter';
+  readonly aggregator = 'sum';
+
+  constructor(readonly name: string, readonly help: string, private readonly of: HistogramFamily, registry: Registry) {
+    registry.registerMetric(this as never);
+  }
+
+  get(): { name: string; help: string; type: string; aggregator: string; values: ExportedValue[] } {
+    return { name: this.name, help: this.help, type: this.type, aggregator: this.aggregator, values: this.of.counts() };
+  }
+
+  /** Nothing of its own to reset: the histogram's reset() zeroes it. */
+  reset(): void {}
 }
 
 export class ServiceMetrics {
   readonly registry = new Registry();
-  readonly requests = new CounterFamily('throatline_http_requests_total', 'HTTP answers by method, route pattern and status.', ['method', 'route', 'status'], this.registry);
   readonly duration = new HistogramFamily(
     'throatline_http_request_duration_seconds',
     'Time from request to the end of the answer, by method, route pattern and status.',
@@ -171,6 +196,7 @@ export class ServiceMetrics {
     LATENCY_BUCKETS,
     this.registry,
   );
+  readonly requests = new ObservationCount('throatline_http_requests_total', 'HTTP answers by method, route pattern and status.', this.duration, this.registry);
   readonly calculations = new CounterFamily(
     'throatline_calculations_total',
     'Calculations answered (single, batch items, range-table rows) by kind, status (pass, fail, refused) and governing code (error code when refused).',
@@ -180,7 +206,7 @@ export class ServiceMetrics {
   readonly eventLoopDelay = new Gauge({ name: 'throatline_event_loop_delay_seconds', help: 'Mean event-loop delay over the last sampling window, as load shedding sees it.', registers: [this.registry] });
   readonly overloaded = new Gauge({ name: 'throatline_overloaded', help: '1 while new work is shed because the event loop lags.', registers: [this.registry] });
   readonly ready = new Gauge({ name: 'throatline_ready', help: '1 while /readyz answers 200.', registers: [this.registry] });
-  readonly batchesAnswering = new Gauge({ name: 'throatline_batches_answering', help: 'JSON-array batches being answered (at most BATCH_CONCURRENCY).', registers: [this.registry] });
+  readonly batchesAnswering = new Gauge({ name: 'throatline_batches_answering', help: 'JSON-array batches being computed (at most BATCH_CONCURRENCY).', registers: [this.registry] });
   readonly batchesWaiting = new Gauge({ name: 'throatline_batches_waiting', help: 'JSON-array batches received and waiting for their turn.', registers: [this.registry] });
 
   /** Counts one answered calculation. */
@@ -195,7 +221,6 @@ export class ServiceMetrics {
 
   /** Counts one HTTP answer and its latency. */
   answered(method: string, route: string, status: number, seconds: number): void {
-    this.requests.inc(method, route, status);
     this.duration.observe(method, route, status, seconds);
   }
 

@@ -1,14 +1,15 @@
 /**
  * The service's counter and histogram families keep plain numbers and let prom-client's registry
  * write them. The reference is prom-client itself (a general-purpose library from the registry):
- * the same observations given to its own Counter and Histogram must produce the same exposition
- * text, byte for byte, for any label values (quotes, backslashes, line breaks, non-ASCII) and any
- * observations (on a bucket bound, between bounds, beyond the last one, zero).
+ * the same observations given to its own Counter and Histogram (and a Counter counting the
+ * observations, for ObservationCount) must produce the same exposition text, byte for byte, for
+ * any label values (quotes, backslashes, line breaks, non-ASCII) and any observations (on a
+ * bucket bound, between bounds, beyond the last one, zero).
  */
 import fc from 'fast-check';
 import { Counter, Histogram, Registry } from 'prom-client';
 import { describe, expect, it } from 'vitest';
-import { CounterFamily, HistogramFamily } from '../../src/plugins/metrics.js';
+import { CounterFamily, HistogramFamily, ObservationCount } from '../../src/plugins/metrics.js';
 
 const BOUNDS = [0.001, 0.0025, 0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10, 30, 60];
 const LABELS = ['method', 'route', 'status'] as const;
@@ -21,6 +22,7 @@ async function ours(events: [[string, string, string | number], number][]): Prom
   const registry = new Registry();
   const c = new CounterFamily('t_total', 'Help with a \\ and a\nline break.', LABELS, registry);
   const h = new HistogramFamily('t_seconds', 'Latency.', LABELS, BOUNDS, registry);
+  new ObservationCount('t_answers_total', 'Observations.', h, registry);
   for (const [[a, b, s], v] of events) {
     c.inc(a, b, s);
     h.observe(a, b, s, v);
@@ -32,9 +34,11 @@ async function reference(events: [[string, string, string | number], number][]):
   const registry = new Registry();
   const c = new Counter({ name: 't_total', help: 'Help with a \\ and a\nline break.', labelNames: LABELS, registers: [registry] });
   const h = new Histogram({ name: 't_seconds', help: 'Latency.', labelNames: LABELS, buckets: BOUNDS, registers: [registry] });
+  const n = new Counter({ name: 't_answers_total', help: 'Observations.', labelNames: LABELS, registers: [registry] });
   for (const [[a, b, s], v] of events) {
     c.labels({ method: a, route: b, status: s }).inc();
     h.labels({ method: a, route: b, status: s }).observe(v);
+    n.labels({ method: a, route: b, status: s }).inc();
   }
   return registry.metrics();
 }
