@@ -25,7 +25,7 @@ export const ConfigSchema = Type.Object(
     DOCS: Type.Boolean({ default: true, description: 'Serve the reference page at /docs.' }),
     BATCH_MAX_ITEMS: Type.Integer({ default: 100000, minimum: 1, maximum: 10000000, description: 'Most items in one batch, JSON or NDJSON.' }),
     BATCH_BODY_LIMIT: Type.Integer({ default: 67108864, minimum: 1024, maximum: 1073741824, description: 'Largest JSON batch body, and largest NDJSON stream, bytes.' }),
-    BATCH_CONCURRENCY: Type.Integer({ default: 2, minimum: 1, maximum: 64, description: 'JSON-array batches answered at once; the others wait their turn in arrival order, holding only their body text.' }),
+    BATCH_CONCURRENCY: Type.Integer({ default: 2, minimum: 1, maximum: 64, description: 'JSON-array batches computed at once; the others wait their turn in arrival order, holding only their body text.' }),
     BATCH_MAX_LINE: Type.Integer({ default: 65536, minimum: 256, maximum: 16777216, description: 'Longest NDJSON line (one item), bytes.' }),
     API_KEY_HASHES: Type.String({ default: '', pattern: SHA256_HEX_LIST, description: 'Comma list of SHA-256 hashes (64 hex digits) of the accepted API keys; empty turns authentication off.' }),
     METRICS: Type.Boolean({ default: true, description: 'Serve Prometheus metrics at /metrics.' }),

@@ -29,7 +29,7 @@ import { pickValue } from '../../formats.js';
 import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
 import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
 import { nestsDeeperThan, tooDeep } from '../../plugins/json-body.js';
-import { Lanes, STALL_MS, type Lease } from './lanes.js';
+import { STALL_MS, type Lanes, type Lease } from './lanes.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -140,7 +140,7 @@ class BatchText {
   constructor(readonly text: string) {}
 }
 
-export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes?: Lanes }): Promise<void> {
+export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes: Lanes }): Promise<void> {
   const { config, operations } = opts;
   // One set of compiled validators and serializers serves both id formats.
   const shared = batchRunner(operations);
@@ -150,7 +150,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
   };
   const kinds = operations.map((o) => o.kind);
 
-  const lanes = opts.lanes ?? new Lanes(config.BATCH_CONCURRENCY);
+  const { lanes } = opts;
   // JSON bodies of this route are kept as text until the request's turn: the same depth check as
   // every JSON body now, the framework's parser (and its errors) then.
   const parseJson = app.getDefaultJsonParser('error', 'error');

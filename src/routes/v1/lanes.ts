@@ -35,7 +35,6 @@ const over = (res: LaneResponse): boolean => res.destroyed || res.writableEnded;
 /** One request's claim on a lane. */
 export class Lease {
   private isHeld = false;
-  private closed = false;
   /** @internal its place in the queue while it waits. */
   waiter: Waiter | null = null;
 
@@ -44,7 +43,6 @@ export class Lease {
     readonly res: LaneResponse,
   ) {
     res.once('close', () => {
-      this.closed = true;
       if (this.waiter) this.lanes.leave(this.waiter);
       this.release();
     });
@@ -69,13 +67,13 @@ export class Lease {
   /** Holds a lane again, waiting at the back of the queue; false when the response closed first. */
   reenter(): Promise<boolean> {
     if (this.isHeld) return Promise.resolve(true);
-    if (this.closed || over(this.res)) return Promise.resolve(false);
+    if (this.gone) return Promise.resolve(false);
     return this.lanes.queueFor(this);
   }
 
-  /** @internal whether the response has closed. */
+  /** @internal whether the response is over (answered, cut off or abandoned). */
   get gone(): boolean {
-    return this.closed || over(this.res);
+    return over(this.res);
   }
 }
 
