@@ -13,7 +13,7 @@
  * Items are validated with the operations' precompiled validators and answers serialized with
  * precompiled serializers, once per kind, not through the per-request route machinery.
  */
-import { Readable } from 'node:stream';
+import { pipeline, Readable, Transform } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fastJson from 'fast-json-stringify';
 import { lazyFunction } from '../../plugins/lazy-compile.js';
@@ -23,13 +23,14 @@ import type { Config } from '../../config.js';
 import type { Operation } from '../../operations/shared.js';
 import { RequestFieldError } from '../../operations/shared.js';
 import { bodyValidator, RequestValidationError, validatorCompiler } from '../../plugins/validation.js';
-import { problem, PROBLEM_TYPE, sendProblem, toProblem } from '../../plugins/problem.js';
+import { problem, PROBLEM_TYPE, ProblemError, sendProblem, toProblem } from '../../plugins/problem.js';
 import { Problem, StringEnum } from '../../schemas/common.js';
 import { pickValue } from '../../formats.js';
 import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
 import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
 import { nestsDeeperThan, tooDeep } from '../../plugins/json-body.js';
 import { STALL_MS, type Lanes, type Lease } from './lanes.js';
+import { Holding, type ByteAllowance } from './allowance.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -140,7 +141,12 @@ class BatchText {
   constructor(readonly text: string) {}
 }
 
-export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes: Lanes }): Promise<void> {
+/** Seconds a batch refused for want of room is told to wait (batches take seconds to answer). */
+export const BUSY_RETRY_S = 5;
+
+const isJsonBody = (contentType: string | undefined): boolean => contentType !== undefined && /^\s*application\/json\s*(;|$)/i.test(contentType);
+
+export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes: Lanes; held: ByteAllowance }): Promise<void> {
   const { config, operations } = opts;
   // One set of compiled validators and serializers serves both id formats.
   const shared = batchRunner(operations);
@@ -150,7 +156,15 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
   };
   const kinds = operations.map((o) => o.kind);
 
-  const { lanes } = opts;
+  const { lanes, held } = opts;
+  /** Each JSON batch's share of BATCH_HOLD_BYTES (./allowance.ts). */
+  const holdings = new WeakMap<FastifyRequest, Holding>();
+  const busy = (reply: FastifyReply): ProblemError => {
+    reply.header('retry-after', String(BUSY_RETRY_S));
+    return new ProblemError(
+      problem(503, 'batches-busy', 'Busy with other batches', `This replica already holds ${(held.held / 1048576).toFixed(1)} MiB of batch bodies, the most it takes at once; retry in ${BUSY_RETRY_S} s, send smaller batches, or stream the items as NDJSON.`),
+    );
+  };
   // JSON bodies of this route are kept as text until the request's turn: the same depth check as
   // every JSON body now, the framework's parser (and its errors) then.
   const parseJson = app.getDefaultJsonParser('error', 'error');
@@ -193,7 +207,48 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
           },
         },
         400: { description: 'The batch itself is malformed.', content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } },
+        503: {
+          description: `A JSON batch that does not fit beside the batch bodies this replica already holds (BATCH_HOLD_BYTES), refused before its body is read; retry after Retry-After (${BUSY_RETRY_S} s).`,
+          content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } },
+        },
       },
+    },
+    // A JSON batch takes its bytes of the allowance before its body is kept: all of them when its
+    // length is declared, otherwise chunk by chunk as they arrive. One that does not fit is read
+    // to its end and dropped (nothing is kept), then refused: answered while the client still
+    // sends, the refusal could reach it as a broken pipe instead of a 503 it can retry.
+    preParsing: (request, reply, payload, done) => {
+      if (!isJsonBody(request.headers['content-type'])) return done(null, payload);
+      const holding = new Holding(held);
+      holdings.set(request, holding);
+      reply.raw.once('close', () => holding.release());
+      const declared = request.headers['content-length'];
+      if (declared !== undefined) {
+        const n = Number(declared);
+        // Over the body limit: the framework refuses it (413) without reading it.
+        if (n > config.BATCH_BODY_LIMIT || holding.take(n)) return done(null, payload);
+        payload.on('error', () => {}); // the client left: there is no one to answer
+        payload.once('end', () => done(busy(reply)));
+        payload.resume();
+        return;
+      }
+      let refused = false;
+      done(
+        null,
+        pipeline(
+          payload,
+          new Transform({
+            transform(chunk: Buffer, _encoding, next) {
+              if (!refused && !holding.take(chunk.length)) refused = true;
+              next(null, refused ? undefined : chunk);
+            },
+            flush(next) {
+              next(refused ? busy(reply) : null);
+            },
+          }),
+          () => {}, // an error reaches the framework through the returned stream
+        ),
+      );
     },
     // The ndjson body is a stream, not a value to validate; item validation happens per item.
     validatorCompiler: (route) => (route.httpPart === 'body' ? (value: unknown) => ({ value }) : validatorCompiler(route)),
@@ -223,13 +278,15 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         }
         const page = batchHtml(body, (item, i) => runner.run(item, i, null), operations);
         lease?.release();
+        holdings.get(request)?.release();
         return reply.type(HTML_TYPE).send(page);
       }
       if (Array.isArray(body)) {
         if (body.length > config.BATCH_MAX_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));
         }
-        return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields, lease)));
+        const holding = holdings.get(request);
+        return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields, lease, () => holding?.release())));
       }
       if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {
         const wantSummary = q.summary === true || q.summary === 'true';
@@ -298,7 +355,7 @@ export class Utf8Slices {
  * until the last item is done nor keeps the event loop for the whole batch. The array (the
  * request's parsed body) is emptied as its items are answered.
  */
-async function* jsonResults(items: unknown[], runner: Runner, fields: readonly string[] | null, lease: Lease | null): AsyncGenerator<Buffer> {
+async function* jsonResults(items: unknown[], runner: Runner, fields: readonly string[] | null, lease: Lease | null, computed: () => void): AsyncGenerator<Buffer> {
   const counts = { items: items.length, pass: 0, fail: 0, error: 0 };
   const out = new Utf8Slices();
   out.add('{"results":[');
@@ -325,6 +382,7 @@ async function* jsonResults(items: unknown[], runner: Runner, fields: readonly s
     out.add(`],"summary":${JSON.stringify(counts)}}`);
     // Everything is computed: the rest is the client's reading.
     lease?.release();
+    computed();
     yield out.take();
   } finally {
     lease?.release();
