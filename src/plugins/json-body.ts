@@ -15,6 +15,7 @@ const OPEN_BRACE = 0x7b;
 const CLOSE_BRACE = 0x7d;
 const OPEN_BRACKET = 0x5b;
 const CLOSE_BRACKET = 0x5d;
+const COMMA = 0x2c;
 
 /**
  * Whether arrays and objects in JSON text nest deeper than `max` (outside strings). A string is
@@ -45,6 +46,54 @@ export function nestsDeeperThan(text: string, max: number): boolean {
     }
   }
   return false;
+}
+
+/** The first limit a batch body's text breaks, found before it is parsed (see batchBodyFault). */
+export type BatchFault = { kind: 'deep' } | { kind: 'items' } | { kind: 'wide'; item: number };
+
+/**
+ * One pass over a JSON batch body (an array of items) before it is parsed: whether arrays and
+ * objects nest deeper than `maxDepth`, whether the top-level array has more than `maxItems`
+ * members, and whether any array or object inside it has more than `maxMembers`. Members are
+ * counted at the commas between them, outside strings.
+ *
+ * Why before parsing: the parser makes every member of an array before anything can count them.
+ * A 60 MB body of one array of 30 million zeros took the process to 919 MiB resident (the
+ * parsed array, and its copy while it grew), where the same bytes as 3,000 arrays of 10,000
+ * took 454 MiB and an ordinary 25 MB batch of 100,000 items about 245 MiB. No request of this
+ * API has a list of more than 50 members, so a bound of a thousand refuses no valid item.
+ */
+export function batchBodyFault(text: string, maxDepth: number, maxItems: number, maxMembers: number): BatchFault | null {
+  let depth = 0;
+  // Commas seen in the container open at each depth (depth 1: the items).
+  const commas = new Int32Array(maxDepth + 2);
+  const n = text.length;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c === QUOTE) {
+      let j = i;
+      for (;;) {
+        j = text.indexOf('"', j + 1);
+        if (j === -1) return null; // an unterminated string: the parser refuses the body
+        let backslashes = 0;
+        while (text.charCodeAt(j - 1 - backslashes) === BACKSLASH) backslashes++;
+        if ((backslashes & 1) === 0) break;
+      }
+      i = j;
+    } else if (c === COMMA) {
+      if (depth === 1) {
+        if (++commas[1]! >= maxItems) return { kind: 'items' };
+      } else if (depth > 1 && ++commas[depth]! >= maxMembers) {
+        return { kind: 'wide', item: commas[1]! };
+      }
+    } else if (c === OPEN_BRACE || c === OPEN_BRACKET) {
+      if (++depth > maxDepth) return { kind: 'deep' };
+      commas[depth] = 0;
+    } else if (c === CLOSE_BRACE || c === CLOSE_BRACKET) {
+      depth--;
+    }
+  }
+  return null;
 }
 
 /** The answer to a body that nests deeper than `max`. */

@@ -6,7 +6,7 @@ import fc from 'fast-check';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { FastifyInstance } from 'fastify';
 import { buildApp } from '../../src/app.js';
-import { nestsDeeperThan } from '../../src/plugins/json-body.js';
+import { batchBodyFault, nestsDeeperThan, type BatchFault } from '../../src/plugins/json-body.js';
 
 let app: FastifyInstance;
 beforeAll(async () => {
@@ -32,6 +32,69 @@ describe('body size', () => {
     expect(body.length).toBeGreaterThan(4096);
     expect((await postJson('/v1/batch', body)).statusCode).toBe(200);
     expect((await postJson('/v1/batch', JSON.stringify(Array.from({ length: 600 }, () => item)))).statusCode).toBe(413);
+  });
+});
+
+describe('batch bodies counted before parsing', () => {
+  /**
+   * Reference, written here: walk the value in the order JSON.stringify writes it and report the
+   * first limit broken, as a reader of the text meets it: a container opened deeper than
+   * maxDepth; the top-level array reaching item maxItems (0-based); an inner container reaching
+   * member maxMembers, with the index of the item it is in.
+   */
+  function reference(value: unknown, maxDepth: number, maxItems: number, maxMembers: number): BatchFault | null {
+    let item = 0;
+    const walk = (v: unknown, depth: number): BatchFault | null => {
+      if (v === null || typeof v !== 'object') return null;
+      const d = depth + 1;
+      if (d > maxDepth) return { kind: 'deep' };
+      const members = Array.isArray(v) ? v : Object.values(v as Record<string, unknown>);
+      for (let k = 0; k < members.length; k++) {
+        if (k > 0 && d === 1) {
+          item = k;
+          if (k >= maxItems) return { kind: 'items' };
+        } else if (k > 0 && k >= maxMembers) {
+          return { kind: 'wide', item };
+        }
+        const f = walk(members[k], d);
+        if (f) return f;
+      }
+      return null;
+    };
+    return walk(value, 0);
+  }
+
+  it('the scan finds the same first fault as a walk of the value (property)', () => {
+    const tricky = fc.string({ unit: fc.constantFrom('\\', '"', '[', '{', ']', '}', ',', 'a'), maxLength: 8 });
+    const leaf = fc.oneof(tricky, fc.integer(), fc.constant(null));
+    const value = fc.letrec((tie) => ({
+      node: fc.oneof({ depthSize: 'small' }, leaf, fc.array(tie('node'), { maxLength: 6 }), fc.dictionary(tricky, tie('node'), { maxKeys: 6 })),
+    })).node;
+    fc.assert(
+      fc.property(fc.array(value, { maxLength: 8 }), fc.integer({ min: 1, max: 6 }), fc.integer({ min: 1, max: 7 }), fc.integer({ min: 1, max: 5 }), (items, maxDepth, maxItems, maxMembers) => {
+        expect(batchBodyFault(JSON.stringify(items), maxDepth, maxItems, maxMembers)).toEqual(reference(items, maxDepth, maxItems, maxMembers));
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  it('refuses more items than BATCH_MAX_ITEMS, and an inner list of over 1,000 members naming its item, before parsing', async () => {
+    const small = await buildApp({ config: { DOCS: false, BATCH_MAX_ITEMS: 3 } });
+    const item = { kind: 'fillet', method: 'LRFD', electrode: 'E70', welds: [{ size: 0.25, length: 4 }], load: { force: 10 }, parts: [{ thickness: 0.5, steel: 'A36' }] };
+    const many = await small.inject({ method: 'POST', url: '/v1/batch', headers: { 'content-type': 'application/json' }, payload: JSON.stringify([item, item, item, item]) });
+    expect(many.statusCode).toBe(413);
+    expect(many.json()).toMatchObject({ type: 'urn:throatline:problem:batch-too-large', status: 413 });
+    // 1,001 welds in item 1 (the schema allows 50): refused on the text, with the item's pointer.
+    const wide = { ...item, welds: Array.from({ length: 1001 }, () => ({ size: 0.25, length: 4 })) };
+    const res = await small.inject({ method: 'POST', url: '/v1/batch', headers: { 'content-type': 'application/json' }, payload: JSON.stringify([item, wide]) });
+    expect(res.statusCode).toBe(400);
+    expect(res.json()).toMatchObject({ type: 'urn:throatline:problem:too-wide', errors: [{ pointer: '/1' }] });
+    // 1,000 members is still read (and the item refused by its schema, the others answered).
+    const thousand = { ...item, welds: Array.from({ length: 1000 }, () => ({ size: 0.25, length: 4 })) };
+    const ok = await small.inject({ method: 'POST', url: '/v1/batch', headers: { 'content-type': 'application/json' }, payload: JSON.stringify([item, thousand]) });
+    expect(ok.statusCode).toBe(200);
+    expect((ok.json() as { summary: object }).summary).toEqual({ items: 2, pass: 1, fail: 0, error: 1 });
+    await small.close();
   });
 });
 

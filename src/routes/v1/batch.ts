@@ -28,7 +28,7 @@ import { Problem, StringEnum } from '../../schemas/common.js';
 import { pickValue } from '../../formats.js';
 import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
 import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
-import { nestsDeeperThan, tooDeep } from '../../plugins/json-body.js';
+import { batchBodyFault, tooDeep } from '../../plugins/json-body.js';
 import { STALL_MS, type Lanes, type Lease } from './lanes.js';
 import { Holding, type ByteAllowance } from './allowance.js';
 
@@ -141,6 +141,9 @@ class BatchText {
   constructor(readonly text: string) {}
 }
 
+/** Most members of an array or object inside a JSON batch body (checked on its text, before parsing). */
+export const MAX_MEMBERS = 1000;
+
 /** Seconds a batch refused for want of room is told to wait (batches take seconds to answer). */
 export const BUSY_RETRY_S = 5;
 
@@ -165,14 +168,21 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
       problem(503, 'batches-busy', 'Busy with other batches', `This replica already holds ${(held.held / 1048576).toFixed(1)} MiB of batch bodies, the most it takes at once; retry in ${BUSY_RETRY_S} s, send smaller batches, or stream the items as NDJSON.`),
     );
   };
-  // JSON bodies of this route are kept as text until the request's turn: the same depth check as
-  // every JSON body now, the framework's parser (and its errors) then.
+  // JSON bodies of this route are kept as text until the request's turn: checked on their text
+  // now (depth as every JSON body, and the item and member counts, see batchBodyFault), the
+  // framework's parser (and its errors) then.
   const parseJson = app.getDefaultJsonParser('error', 'error');
   app.removeContentTypeParser('application/json');
   app.addContentTypeParser('application/json', { parseAs: 'string' }, (_request, body, done) => {
     const text = body as string;
-    if (nestsDeeperThan(text, config.JSON_MAX_DEPTH)) done(tooDeep(config.JSON_MAX_DEPTH), undefined);
-    else done(null, new BatchText(text));
+    const fault = batchBodyFault(text, config.JSON_MAX_DEPTH, config.BATCH_MAX_ITEMS, MAX_MEMBERS);
+    if (fault === null) done(null, new BatchText(text));
+    else if (fault.kind === 'deep') done(tooDeep(config.JSON_MAX_DEPTH), undefined);
+    else if (fault.kind === 'items') done(new ProblemError(problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has more.`)), undefined);
+    else {
+      const detail = `holds an array or object of more than ${MAX_MEMBERS} members; no input of this service has more than 50.`;
+      done(new ProblemError(problem(400, 'too-wide', 'List too long', `/${fault.item}: ${detail}`, { errors: [{ pointer: `/${fault.item}`, detail }] })), undefined);
+    }
   });
   const parseTurn = (request: FastifyRequest, text: string): Promise<unknown> =>
     new Promise((resolve, reject) => parseJson(request, text, (err, value) => (err ? reject(err) : resolve(value))));
