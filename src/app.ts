@@ -34,7 +34,7 @@ import catalogRoutes from './routes/v1/catalog.js';
 import healthRoutes, { type ReadinessState } from './routes/health.js';
 import batchRoutes from './routes/v1/batch.js';
 import { Lanes } from './routes/v1/lanes.js';
-import { ByteAllowance } from './routes/v1/allowance.js';
+import bodyHold, { ByteAllowance } from './plugins/body-hold.js';
 
 export interface AppOptions {
   /** Settings over the defaults; validated like the environment (a bad one throws ConfigError). */
@@ -70,7 +70,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const lanes = new Lanes(config.BATCH_CONCURRENCY);
   // An eighth of the heap: with the manifest's 384 MB heap, sixteen 25 MB batches sent at once
   // peaked at 376 MiB resident (two taken at a time); a quarter let four in and peaked at 478-510.
-  const held = new ByteAllowance(config.BATCH_HOLD_BYTES || Math.floor(getHeapStatistics().heap_size_limit / 8));
+  const held = new ByteAllowance(config.BODY_HOLD_BYTES || Math.floor(getHeapStatistics().heap_size_limit / 8));
 
   const app = Fastify({
     ...(options.loggerInstance ? { loggerInstance: options.loggerInstance } : { logger: withRedaction(options.logger) }),
@@ -98,6 +98,7 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
 
   await app.register(problemDetails);
   await app.register(jsonBody, { maxDepth: config.JSON_MAX_DEPTH });
+  await app.register(bodyHold, { allowance: held });
   await app.register(security);
   await app.register(cors, { origins: corsOrigins(config) });
   await app.register(metricsPlugin, { metrics });
@@ -116,12 +117,12 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
       eventLoopDelayMs: monitor.delayMs,
       batchesAnswering: lanes.busy,
       batchesWaiting: lanes.waiting,
-      batchBytesHeld: held.held,
+      bodyBytesHeld: held.held,
     }));
   }
   await app.register(catalogRoutes);
   for (const op of operations) registerCheck(app, op, { chromiumPath: config.CHROMIUM_PATH });
-  await app.register(batchRoutes, { config, operations, lanes, held });
+  await app.register(batchRoutes, { config, operations, lanes });
   // Some spreadsheet web functions probe a URL with OPTIONS, then HEAD, then GET, and give up
   // when OPTIONS fails: answer it on every path with the methods the service uses.
   app.options('*', { schema: { hide: true }, logLevel: 'warn' }, async (_request, reply) =>

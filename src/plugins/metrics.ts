@@ -12,8 +12,8 @@
  * - throatline_event_loop_delay_seconds and throatline_overloaded: what load shedding sees;
  * - throatline_ready: 1 while /readyz answers 200;
  * - throatline_batches_answering and throatline_batches_waiting: JSON-array batches holding a
- *   lane and waiting for one (routes/v1/lanes.ts); throatline_batch_bytes_held: their bodies'
- *   bytes against BATCH_HOLD_BYTES (routes/v1/allowance.ts).
+ *   lane and waiting for one (routes/v1/lanes.ts);
+ * - throatline_body_bytes_held: request bodies' bytes against BODY_HOLD_BYTES (plugins/body-hold.ts).
  * Per process (registered once): prom-client's default metrics: process CPU and memory
  * (process_resident_memory_bytes, nodejs_heap_size_used_bytes, ...), event-loop delay
  * (nodejs_eventloop_lag_seconds, nodejs_eventloop_lag_p99_seconds, ...) and GC.
@@ -209,7 +209,7 @@ export class ServiceMetrics {
   readonly ready = new Gauge({ name: 'throatline_ready', help: '1 while /readyz answers 200.', registers: [this.registry] });
   readonly batchesAnswering = new Gauge({ name: 'throatline_batches_answering', help: 'JSON-array batches being computed (at most BATCH_CONCURRENCY).', registers: [this.registry] });
   readonly batchesWaiting = new Gauge({ name: 'throatline_batches_waiting', help: 'JSON-array batches received and waiting for their turn.', registers: [this.registry] });
-  readonly batchBytesHeld = new Gauge({ name: 'throatline_batch_bytes_held', help: 'Bytes of JSON-array batch bodies held (arriving, waiting or being computed), at most BATCH_HOLD_BYTES but for one batch.', registers: [this.registry] });
+  readonly bodyBytesHeld = new Gauge({ name: 'throatline_body_bytes_held', help: 'Bytes of request bodies held (arriving, waiting or being answered), at most BODY_HOLD_BYTES but for one body.', registers: [this.registry] });
 
   /** Counts one answered calculation. */
   calculation(kind: string, answer: Pick<Envelope<unknown>, 'status' | 'governing'>): void {
@@ -259,7 +259,7 @@ export interface MetricGauges {
   eventLoopDelayMs: number;
   batchesAnswering: number;
   batchesWaiting: number;
-  batchBytesHeld: number;
+  bodyBytesHeld: number;
 }
 
 /** Registers GET /metrics; `gauges` is read at each scrape. */
@@ -280,7 +280,7 @@ export function metricsRoute(app: FastifyInstance, metrics: ServiceMetrics, gaug
       metrics.eventLoopDelay.set(g.eventLoopDelayMs / 1000);
       metrics.batchesAnswering.set(g.batchesAnswering);
       metrics.batchesWaiting.set(g.batchesWaiting);
-      metrics.batchBytesHeld.set(g.batchBytesHeld);
+      metrics.bodyBytesHeld.set(g.bodyBytesHeld);
       return reply.type(METRICS_CONTENT_TYPE).send(await metrics.text());
     },
   });

@@ -15,7 +15,7 @@ export const API_DESCRIPTION =
   'every answer says pass or fail, which limit state governs (a stable code), every check with its clause, the detailing limits and warnings.\n\n' +
   `**Caution.** ${NOTICE}\n\n` +
   '**Access.** A deployment may require an API key (`Authorization: Bearer <key>` or the `x-throatline-key` header; 401 without one) and may limit ' +
-  'requests per key or client address (429 with `Retry-After`); a replica under overload answers 503 with `Retry-After`. Every refusal is an RFC 9457 problem document. ' +
+  'requests per key or client address (429 with `Retry-After`); a replica under overload, or already holding as many request bodies as it takes at once, answers 503 with `Retry-After`. Every refusal is an RFC 9457 problem document. ' +
   '/healthz, /readyz, this contract and /docs never need a key.';
 
 /** Both ways of presenting an API key; optional, since a deployment decides whether keys are required. */

@@ -1,10 +1,10 @@
 /**
  * Many large batches at once must not end the process. The real server runs as a child with a
  * small JavaScript heap (128 MB) and receives 48 batches of 18,000 fillets (about 4 MB each,
- * 192 MB in all) at the same moment. Before the batch byte allowance (BATCH_HOLD_BYTES,
- * routes/v1/allowance.ts) every body was taken and held as text while it waited for a lane, and
+ * 192 MB in all) at the same moment. Before the body allowance (BODY_HOLD_BYTES,
+ * plugins/body-hold.ts) every body was taken and held as text while it waited for a lane, and
  * this run ended the process with "JavaScript heap out of memory". Now each batch is either
- * answered in full or refused at once with 503 batches-busy and Retry-After, and the process
+ * answered in full or refused with 503 bodies-busy and Retry-After, and the process
  * answers afterwards.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -22,7 +22,7 @@ afterAll(() => {
 });
 
 describe('48 batches of 4 MB at once under a 128 MB heap', () => {
-  it('answers each in full or refuses it with 503 batches-busy, and the process lives on', async () => {
+  it('answers each in full or refuses it with 503 bodies-busy, and the process lives on', async () => {
     const ITEMS = 18_000;
     const body = JSON.stringify(Array.from({ length: ITEMS }, (_, i) => ({ kind: 'fillet', id: `WS-${i}`, ...FILLET_BODY })));
     expect(body.length).toBeGreaterThan(4_000_000);
@@ -36,7 +36,7 @@ describe('48 batches of 4 MB at once under a 128 MB heap', () => {
       } else {
         expect(o.status).toBe(503);
         expect(o.headers?.['retry-after']).toBe('5');
-        expect((JSON.parse(o.body!) as { type: string }).type).toBe('urn:throatline:problem:batches-busy');
+        expect((JSON.parse(o.body!) as { type: string }).type).toBe('urn:throatline:problem:bodies-busy');
       }
     }
     expect(answered).toBeGreaterThan(0);

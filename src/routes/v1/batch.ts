@@ -13,7 +13,7 @@
  * Items are validated with the operations' precompiled validators and answers serialized with
  * precompiled serializers, once per kind, not through the per-request route machinery.
  */
-import { pipeline, Readable, Transform } from 'node:stream';
+import { Readable } from 'node:stream';
 import type { FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import fastJson from 'fast-json-stringify';
 import { lazyFunction } from '../../plugins/lazy-compile.js';
@@ -30,7 +30,6 @@ import { batchHtml, MAX_HTML_BATCH_ITEMS } from '../../report/batch-sheet.js';
 import { HTML_TYPE, prefersHtml } from '../../report/respond.js';
 import { batchBodyFault, tooDeep } from '../../plugins/json-body.js';
 import { STALL_MS, type Lanes, type Lease } from './lanes.js';
-import { Holding, type ByteAllowance } from './allowance.js';
 
 /** IFC GlobalId: 22 characters of the IFC base-64 alphabet; the first encodes 2 bits (0-3). */
 export const IFC_GLOBAL_ID = /^[0-3][0-9A-Za-z_$]{21}$/;
@@ -147,9 +146,7 @@ export const MAX_MEMBERS = 1000;
 /** Seconds a batch refused for want of room is told to wait (batches take seconds to answer). */
 export const BUSY_RETRY_S = 5;
 
-const isJsonBody = (contentType: string | undefined): boolean => contentType !== undefined && /^\s*application\/json\s*(;|$)/i.test(contentType);
-
-export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes: Lanes; held: ByteAllowance }): Promise<void> {
+export default async function batchRoutes(app: FastifyInstance, opts: { config: Config; operations: readonly Operation[]; lanes: Lanes }): Promise<void> {
   const { config, operations } = opts;
   // One set of compiled validators and serializers serves both id formats.
   const shared = batchRunner(operations);
@@ -159,15 +156,7 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
   };
   const kinds = operations.map((o) => o.kind);
 
-  const { lanes, held } = opts;
-  /** Each JSON batch's share of BATCH_HOLD_BYTES (./allowance.ts). */
-  const holdings = new WeakMap<FastifyRequest, Holding>();
-  const busy = (reply: FastifyReply): ProblemError => {
-    reply.header('retry-after', String(BUSY_RETRY_S));
-    return new ProblemError(
-      problem(503, 'batches-busy', 'Busy with other batches', `This replica already holds ${(held.held / 1048576).toFixed(1)} MiB of batch bodies, the most it takes at once; retry in ${BUSY_RETRY_S} s, send smaller batches, or stream the items as NDJSON.`),
-    );
-  };
+  const { lanes } = opts;
   // JSON bodies of this route are kept as text until the request's turn: checked on their text
   // now (depth as every JSON body, and the item and member counts, see batchBodyFault), the
   // framework's parser (and its errors) then.
@@ -218,48 +207,13 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         },
         400: { description: 'The batch itself is malformed.', content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } } },
         503: {
-          description: `A JSON batch that does not fit beside the batch bodies this replica already holds (BATCH_HOLD_BYTES), refused before its body is read; retry after Retry-After (${BUSY_RETRY_S} s).`,
+          description: `A JSON batch that does not fit beside the request bodies this replica already holds (BODY_HOLD_BYTES), read and dropped; retry after Retry-After (${BUSY_RETRY_S} s).`,
           content: { [PROBLEM_TYPE]: { schema: Type.Ref('Problem') } },
         },
       },
     },
-    // A JSON batch takes its bytes of the allowance before its body is kept: all of them when its
-    // length is declared, otherwise chunk by chunk as they arrive. One that does not fit is read
-    // to its end and dropped (nothing is kept), then refused: answered while the client still
-    // sends, the refusal could reach it as a broken pipe instead of a 503 it can retry.
-    preParsing: (request, reply, payload, done) => {
-      if (!isJsonBody(request.headers['content-type'])) return done(null, payload);
-      const holding = new Holding(held);
-      holdings.set(request, holding);
-      reply.raw.once('close', () => holding.release());
-      const declared = request.headers['content-length'];
-      if (declared !== undefined) {
-        const n = Number(declared);
-        // Over the body limit: the framework refuses it (413) without reading it.
-        if (n > config.BATCH_BODY_LIMIT || holding.take(n)) return done(null, payload);
-        payload.on('error', () => {}); // the client left: there is no one to answer
-        payload.once('end', () => done(busy(reply)));
-        payload.resume();
-        return;
-      }
-      let refused = false;
-      done(
-        null,
-        pipeline(
-          payload,
-          new Transform({
-            transform(chunk: Buffer, _encoding, next) {
-              if (!refused && !holding.take(chunk.length)) refused = true;
-              next(null, refused ? undefined : chunk);
-            },
-            flush(next) {
-              next(refused ? busy(reply) : null);
-            },
-          }),
-          () => {}, // an error reaches the framework through the returned stream
-        ),
-      );
-    },
+    // A batch waits for a lane and takes seconds: a refused one is told to come back later.
+    config: { holdRetryS: BUSY_RETRY_S },
     // The ndjson body is a stream, not a value to validate; item validation happens per item.
     validatorCompiler: (route) => (route.httpPart === 'body' ? (value: unknown) => ({ value }) : validatorCompiler(route)),
     handler: async (request: FastifyRequest, reply: FastifyReply) => {
@@ -288,14 +242,14 @@ export default async function batchRoutes(app: FastifyInstance, opts: { config: 
         }
         const page = batchHtml(body, (item, i) => runner.run(item, i, null), operations);
         lease?.release();
-        holdings.get(request)?.release();
+        request.holding?.release();
         return reply.type(HTML_TYPE).send(page);
       }
       if (Array.isArray(body)) {
         if (body.length > config.BATCH_MAX_ITEMS) {
           return sendProblem(reply, problem(413, 'batch-too-large', 'Batch too large', `At most ${config.BATCH_MAX_ITEMS} items per batch; this one has ${body.length}.`));
         }
-        const holding = holdings.get(request);
+        const { holding } = request;
         return reply.type('application/json; charset=utf-8').send(Readable.from(jsonResults(body, runner, fields, lease, () => holding?.release())));
       }
       if (body instanceof Readable || (body && typeof (body as NodeJS.ReadableStream).pipe === 'function')) {

@@ -36,7 +36,7 @@ function problemResponses() {
     400: { description: 'Invalid request: the errors list points at each offending field.', ...ref },
     422: { description: 'Well-formed, but the engineering rules cannot answer it; the code says why.', ...ref },
     501: { description: 'format=pdf on a host without a headless Chromium (format=html gives the same sheet).', ...ref },
-    503: { description: 'format=pdf: the browser failed or ran out of time printing the sheet.', ...ref },
+    503: { description: 'format=pdf: the browser failed or ran out of time printing the sheet; or the replica already holds as many request bodies as it takes at once (BODY_HOLD_BYTES; Retry-After).', ...ref },
   };
 }
 

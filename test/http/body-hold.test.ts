@@ -1,9 +1,10 @@
 /**
- * The batch byte allowance (routes/v1/allowance.ts, BATCH_HOLD_BYTES): JSON-array batch bodies
- * take their bytes when their upload starts (or chunk by chunk without a Content-Length); one
- * that does not fit is a 503 with Retry-After before its body is read; one batch always fits
- * when none is held; the bytes come back when the batch is computed or its response closes.
- * Checked on the classes against a model written here, and through a listening server.
+ * The body allowance (plugins/body-hold.ts, BODY_HOLD_BYTES): request bodies take their bytes
+ * when their upload starts (or chunk by chunk without a Content-Length); one that does not fit
+ * is read, dropped and answered 503 with Retry-After; one body always fits when none is held;
+ * the bytes come back when the response closes, or when a batch is computed. NDJSON streams and
+ * requests without a body take nothing. Checked on the classes against a model written here,
+ * and through a listening server.
  */
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
@@ -11,7 +12,7 @@ import fc from 'fast-check';
 import type { FastifyInstance } from 'fastify';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildApp } from '../../src/app.js';
-import { ByteAllowance, Holding } from '../../src/routes/v1/allowance.js';
+import { ByteAllowance, Holding, SMALL_BODY } from '../../src/plugins/body-hold.js';
 import { FILLET_BODY } from '../fillet-fixtures.js';
 
 describe('ByteAllowance and Holding', () => {
@@ -50,14 +51,14 @@ describe('ByteAllowance and Holding', () => {
   });
 });
 
-describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
+describe('request bodies within BODY_HOLD_BYTES (listening)', () => {
   const FILLET = { kind: 'fillet', ...FILLET_BODY };
-  const LIMIT = 4096;
+  const LIMIT = 320_000;
   let app: FastifyInstance;
   let port: number;
 
   beforeAll(async () => {
-    app = await buildApp({ config: { DOCS: false, BATCH_HOLD_BYTES: LIMIT } });
+    app = await buildApp({ config: { DOCS: false, BODY_HOLD_BYTES: LIMIT } });
     await app.listen({ host: '127.0.0.1', port: 0 });
     port = (app.server.address() as AddressInfo).port;
   });
@@ -65,17 +66,16 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
     await app.close();
   });
 
-  /** A JSON batch of about `bytes` bytes. */
+  /** A JSON batch of at least `bytes` bytes (all over SMALL_BODY unless a test says otherwise). */
   const batchOf = (tag: string, bytes: number): string => {
-    const items: object[] = [];
-    while (JSON.stringify(items).length < bytes) items.push({ ...FILLET, id: `${tag}-${items.length}` });
-    return JSON.stringify(items);
+    const each = JSON.stringify({ ...FILLET, id: `${tag}-00000` }).length + 1;
+    return JSON.stringify(Array.from({ length: Math.ceil(bytes / each) + 1 }, (_, i) => ({ ...FILLET, id: `${tag}-${String(i).padStart(5, '0')}` })));
   };
   const post = (body: string, contentType = 'application/json') =>
     fetch(`http://127.0.0.1:${port}/v1/batch?fields=status`, { method: 'POST', headers: { 'content-type': contentType }, body });
   const held = async (): Promise<number> => {
     const text = await (await fetch(`http://127.0.0.1:${port}/metrics`)).text();
-    return Number(/^throatline_batch_bytes_held (\d+)$/m.exec(text)?.[1]);
+    return Number(/^throatline_body_bytes_held (\d+)$/m.exec(text)?.[1]);
   };
   const until = async (what: () => Promise<boolean>): Promise<void> => {
     for (let i = 0; i < 200 && !(await what()); i++) await new Promise((r) => setTimeout(r, 10));
@@ -99,22 +99,35 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
   };
 
   it('refuses a batch that does not fit beside one still arriving (503, Retry-After, problem), and takes it once that one is answered', async () => {
-    const first = batchOf('a', 3000);
+    const first = batchOf('a', 240_000);
     const a = halfUpload(first, 1000);
     await until(async () => (await held()) === Buffer.byteLength(first));
     expect(await held()).toBe(Buffer.byteLength(first));
 
-    const refused = await post(batchOf('b', 2000));
+    const refused = await post(batchOf('b', 150_000));
     expect(refused.status).toBe(503);
     expect(refused.headers.get('retry-after')).toBe('5');
     expect(refused.headers.get('content-type')).toMatch(/^application\/problem\+json/);
     const p = (await refused.json()) as { type: string; status: number; detail: string };
-    expect(p.type).toBe('urn:throatline:problem:batches-busy');
+    expect(p.type).toBe('urn:throatline:problem:bodies-busy');
     expect(p.status).toBe(503);
 
-    // A small batch still fits beside it (3,0xx + ~500 bytes <= 4,096).
-    const small = await post(batchOf('s', 300));
+    // A smaller batch still fits beside it (240,0xx + 70,0xx <= 320,000).
+    const small = await post(batchOf('s', 70_000));
     expect(small.status).toBe(200);
+    // A check body over SMALL_BODY does not, and is told to retry sooner; one under it is not
+    // counted (its over-long id then makes it a 400, not a 503), nor is an ordinary check.
+    const check = (padding: number) =>
+      fetch(`http://127.0.0.1:${port}/v1/fillet/check`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ ...FILLET_BODY, id: 'x'.repeat(padding) }) });
+    expect(SMALL_BODY).toBe(65536);
+    const big = await check(99_000);
+    expect(big.status).toBe(503);
+    expect(big.headers.get('retry-after')).toBe('2');
+    expect(((await big.json()) as { type: string }).type).toBe('urn:throatline:problem:bodies-busy');
+    expect((await check(60_000)).status).toBe(400);
+    expect((await check(1)).status).toBe(200);
+    // Requests without a body take nothing.
+    expect((await fetch(`http://127.0.0.1:${port}/readyz`)).status).toBe(200);
 
     a.finish();
     const done = await a.answer;
@@ -123,14 +136,14 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
     expect(results).toBe((JSON.parse(first) as unknown[]).length);
     await until(async () => (await held()) === 0);
     expect(await held()).toBe(0);
-    expect((await post(batchOf('b', 2000))).status).toBe(200);
+    expect((await post(batchOf('b', 150_000))).status).toBe(200);
   });
 
   it('counts a body sent without a Content-Length as it arrives', async () => {
-    const first = batchOf('c', 3000);
+    const first = batchOf('c', 200_000);
     const a = halfUpload(first, 10);
     await until(async () => (await held()) > 0);
-    // A chunked upload of ~2,000 bytes: refused when its chunks no longer fit.
+    // A chunked upload of ~150,000 bytes: refused when its chunks no longer fit.
     const chunked = await new Promise<{ status: number; retry: string | undefined; text: string }>((resolve, reject) => {
       const req = http.request({ host: '127.0.0.1', port, path: '/v1/batch?fields=status', method: 'POST', headers: { 'content-type': 'application/json', 'transfer-encoding': 'chunked' } });
       req.on('response', (res) => {
@@ -140,11 +153,11 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
         res.on('end', () => resolve({ status: res.statusCode ?? 0, retry: res.headers['retry-after'] as string | undefined, text }));
       });
       req.on('error', reject);
-      req.end(batchOf('d', 2000));
+      req.end(batchOf('d', 150_000));
     });
     expect(chunked.status).toBe(503);
     expect(chunked.retry).toBe('5');
-    expect((JSON.parse(chunked.text) as { type: string }).type).toBe('urn:throatline:problem:batches-busy');
+    expect((JSON.parse(chunked.text) as { type: string }).type).toBe('urn:throatline:problem:bodies-busy');
     a.finish();
     expect((await a.answer).status).toBe(200);
     await until(async () => (await held()) === 0);
@@ -159,7 +172,7 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
   });
 
   it('gives the bytes back when the client leaves mid-upload', async () => {
-    const a = halfUpload(batchOf('e', 3000), 500);
+    const a = halfUpload(batchOf('e', 200_000), 500);
     await until(async () => (await held()) > 0);
     expect(await held()).toBeGreaterThan(0);
     a.req.destroy();
@@ -168,13 +181,13 @@ describe('POST /v1/batch within BATCH_HOLD_BYTES (listening)', () => {
   });
 
   it('NDJSON streams take nothing', async () => {
-    const a = halfUpload(batchOf('f', 3000), 100);
+    const a = halfUpload(batchOf('f', 200_000), 100);
     await until(async () => (await held()) > 0);
-    const lines = Array.from({ length: 40 }, (_, i) => JSON.stringify({ ...FILLET, id: `n-${i}` })).join('\n') + '\n';
-    expect(Buffer.byteLength(lines)).toBeGreaterThan(LIMIT);
+    const lines = Array.from({ length: 1500 }, (_, i) => JSON.stringify({ ...FILLET, id: `n-${i}` })).join('\n') + '\n';
+    expect(Buffer.byteLength(lines)).toBeGreaterThan(LIMIT - 200_000);
     const nd = await post(lines, 'application/x-ndjson');
     expect(nd.status).toBe(200);
-    expect((await nd.text()).trim().split('\n')).toHaveLength(40);
+    expect((await nd.text()).trim().split('\n')).toHaveLength(1500);
     a.finish();
     expect((await a.answer).status).toBe(200);
   });
