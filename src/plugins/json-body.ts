@@ -17,6 +17,18 @@ const OPEN_BRACKET = 0x5b;
 const CLOSE_BRACKET = 0x5d;
 const COMMA = 0x2c;
 
+/** The index of the quote that closes the string opened at `open`: the next one not escaped by an odd run of backslashes; -1 if none. */
+function closingQuote(text: string, open: number): number {
+  let j = open;
+  for (;;) {
+    j = text.indexOf('"', j + 1);
+    if (j === -1) return -1;
+    let backslashes = 0;
+    while (text.charCodeAt(j - 1 - backslashes) === BACKSLASH) backslashes++;
+    if ((backslashes & 1) === 0) return j;
+  }
+}
+
 /**
  * Whether arrays and objects in JSON text nest deeper than `max` (outside strings). A string is
  * skipped in one jump to its closing quote (the next quote not escaped by an odd run of
@@ -30,15 +42,8 @@ export function nestsDeeperThan(text: string, max: number): boolean {
   for (let i = 0; i < n; i++) {
     const c = text.charCodeAt(i);
     if (c === QUOTE) {
-      let j = i;
-      for (;;) {
-        j = text.indexOf('"', j + 1);
-        if (j === -1) return false; // an unterminated string: the parser refuses the body
-        let backslashes = 0;
-        while (text.charCodeAt(j - 1 - backslashes) === BACKSLASH) backslashes++;
-        if ((backslashes & 1) === 0) break;
-      }
-      i = j;
+      i = closingQuote(text, i);
+      if (i === -1) return false; // an unterminated string: the parser refuses the body
     } else if (c === OPEN_BRACE || c === OPEN_BRACKET) {
       if (++depth > max) return true;
     } else if (c === CLOSE_BRACE || c === CLOSE_BRACKET) {
@@ -71,15 +76,8 @@ export function batchBodyFault(text: string, maxDepth: number, maxItems: number,
   for (let i = 0; i < n; i++) {
     const c = text.charCodeAt(i);
     if (c === QUOTE) {
-      let j = i;
-      for (;;) {
-        j = text.indexOf('"', j + 1);
-        if (j === -1) return null; // an unterminated string: the parser refuses the body
-        let backslashes = 0;
-        while (text.charCodeAt(j - 1 - backslashes) === BACKSLASH) backslashes++;
-        if ((backslashes & 1) === 0) break;
-      }
-      i = j;
+      i = closingQuote(text, i);
+      if (i === -1) return null; // an unterminated string: the parser refuses the body
     } else if (c === COMMA) {
       if (depth === 1) {
         if (++commas[1]! >= maxItems) return { kind: 'items' };
