@@ -8,6 +8,8 @@
  *   npm run bench                 full run (3 rounds of 5 s per scenario)
  *   npm run bench -- --short      one short round: checks the suite runs (CI), no verdicts
  *   npm run bench -- --rounds 5 --duration 10
+ *   npm run bench -- --node "$(npx -y -p node@24 node -p process.execPath)"
+ *                                 both servers on another Node (the container's is 24)
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { existsSync, openSync, rmSync, writeFileSync } from 'node:fs';
@@ -41,6 +43,10 @@ const BATCH_ITEMS = 1_000;
 const workIdx = args.indexOf('--work');
 const WORK_US = (workIdx >= 0 ? String(args[workIdx + 1]) : '5,20,50').split(',').filter(Boolean).map(Number);
 const hasTaskset = spawnSync('taskset', ['-V']).status === 0;
+/** `--node PATH`: the Node binary both servers run on (default: the one running this bench). */
+const nodeIdx = args.indexOf('--node');
+const SERVER_NODE = nodeIdx >= 0 ? String(args[nodeIdx + 1]) : process.execPath;
+const serverNodeVersion = spawnSync(SERVER_NODE, ['--version'], { encoding: 'utf8' }).stdout?.trim() || `unknown (${SERVER_NODE})`;
 
 // Pin this load generator to core 1 by re-running it under taskset.
 if (hasTaskset && process.env.BENCH_PINNED !== '1') {
@@ -72,8 +78,8 @@ async function waitReady(port: number, path: string, timeoutMs = 15_000): Promis
 }
 
 async function start(name: string, script: string, port: number, readyPath: string, env: Record<string, string> = {}): Promise<Server> {
-  const cmd = hasTaskset ? 'taskset' : process.execPath;
-  const argv = hasTaskset ? ['-c', '0', process.execPath, script] : [script];
+  const cmd = hasTaskset ? 'taskset' : SERVER_NODE;
+  const argv = hasTaskset ? ['-c', '0', SERVER_NODE, script] : [script];
   const out = openSync('/dev/null', 'w');
   const t0 = performance.now();
   const proc = spawn(cmd, argv, { env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', ...env }, stdio: ['ignore', out, 'inherit'] });
@@ -325,7 +331,7 @@ async function main(): Promise<void> {
     verdicts.push(['resident memory at the end of each round', null, rssByRound.map((x) => `${fmt(x)} MiB`).join(', ')]);
   }
 
-  console.log(`\nThroatline HTTP benchmark: ${ROUNDS} round(s) × ${DURATION} s per scenario, ${CONNECTIONS} connections, ` +
+  console.log(`\nThroatline HTTP benchmark: servers on Node ${serverNodeVersion}, ${ROUNDS} round(s) × ${DURATION} s per scenario, ${CONNECTIONS} connections, ` +
     `${hasTaskset ? 'server on core 0, load on core 1' : 'no taskset: cores not pinned'}; medians over rounds; ratios against the bare Fastify baseline given the same payload.\n`);
   console.log(table(rows));
   console.log('(kernel): the part of the CPU per request spent in the kernel. Over loopback the server\'s socket write also wakes the load generator when it sleeps, which it does while waiting for a slower server: on a virtual machine such a wake-up costs a server tens of µs that a faster one, whose client is still busy, mostly does not pay. The lines "plus N µs of arithmetic" show what that does to a route with N µs of its own work.');
