@@ -80,6 +80,7 @@ declare module 'fastify' {
 }
 
 const STREAMED = /^\s*application\/x-ndjson/i;
+const CONTINUE = /^\s*100-continue\s*$/i;
 
 /**
  * Bodies of at most this many bytes, declared, are not counted: a connection's own socket
@@ -100,24 +101,44 @@ export default fp(
         problem(503, 'bodies-busy', 'Busy receiving other requests', `This replica already holds ${(allowance.held / 1048576).toFixed(1)} MiB of request bodies, the most it takes at once; retry in ${retry} s (large batches: send smaller ones, or stream the items as NDJSON).`),
       );
     };
+    // A client that asks before sending its body (Expect: 100-continue, as some HTTP libraries
+    // do for large uploads) is told to go ahead here, once its body has room, rather than by
+    // Node at once: without room it gets the 503 before sending anything, and a request refused
+    // earlier (key, rate limit, overload) never sends its body either.
+    app.server.on('checkContinue', (req, res) => app.server.emit('request', req, res));
+    const goAhead = (request: FastifyRequest, reply: FastifyReply): void => {
+      if (request.headers.expect !== undefined && CONTINUE.test(request.headers.expect) && !reply.raw.headersSent) reply.raw.writeContinue();
+    };
     // Callback style (no promise per request): it runs on every request with a body.
     app.addHook('preParsing', (request, reply, payload, done) => {
       const declared = request.headers['content-length'];
-      // No body, or a small one: not counted (see SMALL_BODY).
-      if (declared === undefined ? request.headers['transfer-encoding'] === undefined : declared.length < 6 && Number(declared) <= SMALL_BODY) return done(null, payload);
-      if (STREAMED.test(request.headers['content-type'] ?? '')) return done(null, payload);
+      // No body, a small one or a stream: not counted (see SMALL_BODY).
+      if (
+        (declared === undefined ? request.headers['transfer-encoding'] === undefined : declared.length < 6 && Number(declared) <= SMALL_BODY) ||
+        STREAMED.test(request.headers['content-type'] ?? '')
+      ) {
+        goAhead(request, reply);
+        return done(null, payload);
+      }
       const holding = new Holding(allowance);
       request.holding = holding;
       reply.raw.once('close', () => holding.release());
       if (declared !== undefined) {
         const n = Number(declared);
         // Over the route's body limit: the framework refuses it (413) without reading it.
-        if (n > request.routeOptions.bodyLimit! || holding.take(n)) return done(null, payload);
+        if (n > request.routeOptions.bodyLimit!) return done(null, payload);
+        if (holding.take(n)) {
+          goAhead(request, reply);
+          return done(null, payload);
+        }
+        // Not sent yet: refuse at once.
+        if (request.headers.expect !== undefined && CONTINUE.test(request.headers.expect)) return done(busy(request, reply));
         payload.on('error', () => {}); // the client left: there is no one to answer
         payload.once('end', () => done(busy(request, reply)));
         payload.resume();
         return;
       }
+      goAhead(request, reply);
       let refused = false;
       done(
         null,

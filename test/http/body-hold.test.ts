@@ -180,6 +180,43 @@ describe('request bodies within BODY_HOLD_BYTES (listening)', () => {
     expect(await held()).toBe(0);
   });
 
+  /** A request that asks before sending its body (Expect: 100-continue); sends it only when told to. */
+  const askFirst = (body: string, path = '/v1/batch?fields=status') =>
+    new Promise<{ status: number; continued: boolean; retry: string | undefined; text: string }>((resolve, reject) => {
+      let continued = false;
+      const req = http.request({ host: '127.0.0.1', port, path, method: 'POST', headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(body), expect: '100-continue' } });
+      req.on('continue', () => {
+        continued = true;
+        req.end(body);
+      });
+      req.on('response', (res) => {
+        let text = '';
+        res.setEncoding('utf8');
+        res.on('data', (c: string) => (text += c));
+        res.on('end', () => {
+          resolve({ status: res.statusCode ?? 0, continued, retry: res.headers['retry-after'] as string | undefined, text });
+          req.destroy();
+        });
+      });
+      req.on('error', reject);
+      req.flushHeaders();
+    });
+
+  it('Expect: 100-continue: told to go ahead when the body has room, refused before sending it when not', async () => {
+    const alone = await askFirst(batchOf('x', 200_000));
+    expect([alone.status, alone.continued]).toEqual([200, true]);
+    const small = await askFirst(JSON.stringify(FILLET_BODY), '/v1/fillet/check');
+    expect([small.status, small.continued]).toEqual([200, true]);
+
+    const a = halfUpload(batchOf('y', 200_000), 1000);
+    await until(async () => (await held()) > 0);
+    const refused = await askFirst(batchOf('z', 150_000));
+    expect([refused.status, refused.continued, refused.retry]).toEqual([503, false, '5']);
+    expect((JSON.parse(refused.text) as { type: string }).type).toBe('urn:throatline:problem:bodies-busy');
+    a.finish();
+    expect((await a.answer).status).toBe(200);
+  }, 15_000); // a server that never says go ahead, or waits for a body not sent, hangs here
+
   it('NDJSON streams take nothing', async () => {
     const a = halfUpload(batchOf('f', 200_000), 100);
     await until(async () => (await held()) > 0);
