@@ -68,8 +68,9 @@ export async function buildApp(options: AppOptions = {}): Promise<FastifyInstanc
   const metrics = new ServiceMetrics();
   const operations = OPERATIONS.map((op) => instrument(op, metrics));
   const lanes = new Lanes(config.BATCH_CONCURRENCY);
-  // An eighth of the heap: with the manifest's 384 MB heap, sixteen 25 MB batches sent at once
-  // peaked at 376 MiB resident (two taken at a time); a quarter let four in and peaked at 478-510.
+  // An eighth of the heap: with a 384 MB old generation, sixteen 25 MB batches sent at once
+  // peaked at 376 MiB resident on Node 20, and at 445 MiB on Node 24 with the manifest's 16 MB
+  // semi-spaces (two taken at a time); a quarter let four in and peaked at 478-510 MiB on Node 20.
   const held = new ByteAllowance(config.BODY_HOLD_BYTES || Math.floor(getHeapStatistics().heap_size_limit / 8));
 
   const app = Fastify({

@@ -4,7 +4,8 @@
  * kept: all of them when its length is declared, otherwise chunk by chunk as they arrive. One
  * that does not fit is read to its end and dropped (nothing of it kept), then answered 503 with
  * Retry-After; answered while the client still sends, the refusal could reach it as a broken
- * pipe instead of an answer it can retry. One body always fits when none is held, so a body of
+ * pipe instead of an answer it can retry (a client that sent Expect: 100-continue is refused
+ * before it sends anything). One body always fits when none is held, so a body of
  * any size a route allows can be answered. The bytes are given back when the response closes,
  * or sooner when a route is done with its body (a batch, once computed). NDJSON streams hold no
  * body and take nothing.
@@ -106,13 +107,15 @@ export default fp(
     // Node at once: without room it gets the 503 before sending anything, and a request refused
     // earlier (key, rate limit, overload) never sends its body either.
     app.server.on('checkContinue', (req, res) => app.server.emit('request', req, res));
+    const asksFirst = (request: FastifyRequest): boolean => request.headers.expect !== undefined && CONTINUE.test(request.headers.expect);
     const goAhead = (request: FastifyRequest, reply: FastifyReply): void => {
-      if (request.headers.expect !== undefined && CONTINUE.test(request.headers.expect) && !reply.raw.headersSent) reply.raw.writeContinue();
+      if (asksFirst(request) && !reply.raw.headersSent) reply.raw.writeContinue();
     };
     // Callback style (no promise per request): it runs on every request with a body.
     app.addHook('preParsing', (request, reply, payload, done) => {
       const declared = request.headers['content-length'];
-      // No body, a small one or a stream: not counted (see SMALL_BODY).
+      // No body, a small one or a stream: not counted (see SMALL_BODY; a length of six digits or
+      // more is over it without reading the number).
       if (
         (declared === undefined ? request.headers['transfer-encoding'] === undefined : declared.length < 6 && Number(declared) <= SMALL_BODY) ||
         STREAMED.test(request.headers['content-type'] ?? '')
@@ -132,7 +135,7 @@ export default fp(
           return done(null, payload);
         }
         // Not sent yet: refuse at once.
-        if (request.headers.expect !== undefined && CONTINUE.test(request.headers.expect)) return done(busy(request, reply));
+        if (asksFirst(request)) return done(busy(request, reply));
         payload.on('error', () => {}); // the client left: there is no one to answer
         payload.once('end', () => done(busy(request, reply)));
         payload.resume();
