@@ -34,6 +34,9 @@ function closingQuote(text: string, open: number): number {
  * skipped in one jump to its closing quote (the next quote not escaped by an odd run of
  * backslashes), found by indexOf: keys and string values are most of a body, and stepping
  * through them a character at a time made this scan 7 % of a 1,000-item batch's CPU.
+ * It stays apart from batchBodyFault, whose loop it shares in shape: every JSON body takes this
+ * path, and delegating to batchBodyFault with unbounded counts cost the fillet route 5-12 µs per
+ * request (alternating runs, 89.8-100.2 against 84.1-88.0 µs).
  */
 export function nestsDeeperThan(text: string, max: number): boolean {
   if (text.length <= max) return false;
